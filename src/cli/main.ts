@@ -1,0 +1,37 @@
+// Entry point of the `topoprobe` command: one verb per module, every error through one reporter.
+import { Command, CommanderError } from 'commander';
+import { predictCommand } from './predict-command.js';
+import { reportError } from './report-error.js';
+import { EXIT } from './exit-codes.js';
+import { VERSION } from '../version.js';
+
+export function buildProgram(): Command {
+  const program = new Command('topoprobe')
+    .description(
+      'Predict, plan and probe circuit-Laplacian lattice boards: what every node should read and where ' +
+        'the boundary modes are (scan plans, instrument runs and diagnosis come in later verbs).',
+    )
+    .version(VERSION, '-V, --version')
+    .showHelpAfterError('(run with --help for usage)')
+    .addCommand(predictCommand());
+  program.exitOverride();
+  for (const cmd of program.commands) cmd.exitOverride().showHelpAfterError(`(run "topoprobe ${cmd.name()} --help" for usage)`);
+  return program;
+}
+
+export async function main(argv: string[]): Promise<number> {
+  const program = buildProgram();
+  try {
+    await program.parseAsync(argv, { from: 'user' });
+    return EXIT.ok;
+  } catch (err) {
+    if (err instanceof CommanderError) {
+      // commander has already printed its one-line message (or the help/version text).
+      if (err.code === 'commander.helpDisplayed' || err.code === 'commander.version') return EXIT.ok;
+      return err.exitCode === 0 ? EXIT.ok : EXIT.badInput;
+    }
+    return reportError(err);
+  }
+}
+
+process.exitCode = await main(process.argv.slice(2));
