@@ -79,6 +79,28 @@ export class GroundedLaplacian {
   }
 
   /**
+   * The lossless board's capacitance (F) and inverse-inductance (1/H) Laplacians as real values over the
+   * same sparse pattern as J, so a shifted K - sigma C can reuse J's symbolic analysis.
+   */
+  losslessSparse(): { pattern: CscPattern; capacitance: Float64Array; inverseInductance: Float64Array } {
+    const nnz = this.pattern.rowIdx.length;
+    const capacitance = new Float64Array(nnz);
+    const inverseInductance = new Float64Array(nnz);
+    for (const s of this.stamps) {
+      if (s.part.kind === 'R') continue;
+      const m = s.part.kind === 'C' ? capacitance : inverseInductance;
+      const g = s.part.kind === 'C' ? s.part.value : 1 / s.part.value;
+      if (s.aa >= 0) m[s.aa] += g;
+      if (s.bb >= 0) m[s.bb] += g;
+      if (s.ab >= 0) {
+        m[s.ab] -= g;
+        m[s.ba] -= g;
+      }
+    }
+    return { pattern: this.pattern, capacitance, inverseInductance };
+  }
+
+  /**
    * The lossless board's two real Laplacians, dense row-major: capacitance C (farads) and inverse
    * inductance K (1/henries), so that J(w) = jwC + K/(jw) when series resistances are dropped.
    * Resistors take no part in the lossless modes.
