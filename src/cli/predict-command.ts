@@ -5,6 +5,7 @@ import { loadBoard } from '../board/load.js';
 import { GroundedLaplacian } from '../circuit/laplacian.js';
 import { everyNodeToGround, predictImpedances, RESIDUAL_LIMIT, type TerminalPair } from '../predict/impedances.js';
 import { predictModes, type Mode } from '../predict/modes.js';
+import { NoLatticeError, predictBands, type BandPrediction } from '../predict/bands.js';
 import { formatQuantity } from '../units/quantity.js';
 import { UsageError } from './exit-codes.js';
 import { parseCount, parseFrequency, parseFrequencyList, parseSweep } from './frequency-options.js';
@@ -17,6 +18,7 @@ interface PredictOptions {
   pair: string[];
   modes?: string;
   near?: string;
+  bands?: string | boolean;
   json?: boolean;
 }
 
@@ -32,6 +34,7 @@ export function predictCommand(): Command {
     .option('--pair <hi:lo>', 'two-point impedance between two nodes, e.g. n1:n24; repeatable', collect, [])
     .option('--modes <k>', 'also list the k resonant modes of the lossless board')
     .option('--near <freq>', 'with --modes: the modes nearest this frequency (default: the most localized)')
+    .option('--bands [points]', 'bulk Bloch bands of a lattice board along the customary path, with the band gaps (points per path segment, default 24)')
     .option('--json', 'print one JSON document on stdout and nothing else')
     .addHelpText(
       'after',
@@ -43,7 +46,8 @@ shows as a peak of node-to-ground impedance.
 Examples:
   topoprobe predict shared/boards/chain-24.yaml --modes 3 --near 160k
   topoprobe predict shared/boards/chain-24.yaml --sweep 140k:190k:101 --node n1 --node n12
-  topoprobe predict shared/boards/corner-8x8.yaml --freq 117.3k --pair c1_1:c4_4 --json`,
+  topoprobe predict shared/boards/corner-8x8.yaml --freq 117.3k --pair a0_0:d3_3 --json
+  topoprobe predict shared/boards/chain-24.yaml --bands`,
     )
     .action((file: string, options: PredictOptions) => {
       process.stdout.write(runPredict(file, options));
@@ -75,6 +79,7 @@ export function runPredict(file: string, options: PredictOptions): string {
     chosenNote = `no --freq or --sweep: reading at the ${modeCount ? 'first listed' : 'most localized'} mode, ${formatQuantity(lead.frequency_hz, 'Hz')}`;
   }
   frequencies = [...new Set(frequencies)].sort((a, b) => a - b);
+  const bands = options.bands !== undefined ? bandsFor(board, options.bands) : undefined;
 
   const prediction = predictImpedances(laplacian, frequencies, pairs);
   const warnings = prediction.quality
@@ -85,13 +90,15 @@ export function runPredict(file: string, options: PredictOptions): string {
     for (const w of warnings) process.stderr.write(`topoprobe: ${w}\n`);
     const doc: Record<string, unknown> = { board: board.name, impedances: prediction.impedances };
     if (modeCount !== undefined) doc.modes = modeSet!.modes;
+    if (bands) doc.bands = bands;
     doc.quality = prediction.quality;
     return JSON.stringify(doc, null, 2) + '\n';
   }
   if (chosenNote) process.stderr.write(`${chosenNote}\n`);
   for (const w of warnings) process.stderr.write(`topoprobe: ${w}\n`);
   let out = describeBoard(board);
-  if (modeCount !== undefined) out += '\n' + modeTable(modeSet!.modes, near) ;
+  if (bands) out += '\n' + bandTable(bands);
+  if (modeCount !== undefined) out += '\n' + modeTable(modeSet!.modes, near);
   out += '\n' + impedanceTable(prediction.impedances);
   return out;
 }
@@ -116,6 +123,26 @@ function terminalPairs(board: Board, laplacian: GroundedLaplacian, options: Pred
     pairs.push(hi === GROUND ? { hi: lo, lo: GROUND } : { hi, lo });
   }
   return pairs.length > 0 ? pairs : everyNodeToGround(laplacian);
+}
+
+function bandsFor(board: Board, option: string | boolean): BandPrediction {
+  const points = option === true ? 24 : parseCount(String(option), '--bands', 10_000);
+  try {
+    return predictBands(board, points);
+  } catch (err) {
+    if (err instanceof NoLatticeError) throw new UsageError(`--bands: ${err.message}`);
+    throw err;
+  }
+}
+
+function bandTable(b: BandPrediction): string {
+  const f = (hz: number) => (Number.isFinite(hz) ? formatQuantity(hz, 'Hz') : 'infinite');
+  const rows = b.bands.map((x) => [String(x.band + 1), f(x.min_hz), f(x.max_hz)]);
+  let out = `bulk bands (path ${b.path.join('-')} and a uniform grid of phases):\n` + textTable(['band', 'lowest', 'highest'], rows, [true, true, true]);
+  out += b.gaps.length === 0
+    ? 'no band gap\n'
+    : 'band gaps, where boundary modes can live:\n' + b.gaps.map((g) => `  ${f(g.below_hz)} .. ${f(g.above_hz)} (above band ${g.band + 1})\n`).join('');
+  return out;
 }
 
 function describeBoard(board: Board): string {

@@ -108,3 +108,40 @@ describe('predict bad input: one line, exit 2, no stack trace', () => {
     for (const l of lines) expect(l).toMatch(/^topoprobe: test\/fixtures\/boards\/bad\/several-problems\.yaml: /);
   });
 });
+
+describe('predict --bands', () => {
+  it('the chain board: one gap, edges from the dimerized-chain dispersion, holding the edge mode', () => {
+    // Source: Asboth, Oroszlany, Palyi, Lecture Notes in Physics 919 (2016), ch. 1: the hopping bands are
+    // +-|v + w e^{i theta}|, extremes |w - v| and v + w. With C_node = v + w and 22 uH (common practice for the
+    // circuit form): f = 1 / (2 pi sqrt(L (v + w -+ t))).
+    const r = runCli(['predict', CHAIN, '--bands', '32', '--modes', '1', '--near', '160k', '--json']);
+    expect(r.status).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    const L = 22e-6;
+    const v = 10e-9;
+    const w = 33e-9;
+    const f = (c: number) => 1 / (2 * Math.PI * Math.sqrt(L * c));
+    expect(doc.bands.gaps).toHaveLength(1);
+    expect(doc.bands.gaps[0].below_hz / f(v + w + (w - v))).toBeCloseTo(1, 9);
+    expect(doc.bands.gaps[0].above_hz / f(v + w - (w - v))).toBeCloseTo(1, 9);
+    const edge = doc.modes[0].frequency_hz;
+    expect(edge).toBeGreaterThan(doc.bands.gaps[0].below_hz);
+    expect(edge).toBeLessThan(doc.bands.gaps[0].above_hz);
+    expect(doc.bands.samples[0].label).toBe('Γ');
+  });
+
+  it('the corner board has its corner modes inside a gap', () => {
+    const r = runCli(['predict', CORNER, '--bands', '--modes', '4', '--near', '117k', '--json']);
+    expect(r.status).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    for (const m of doc.modes) {
+      expect(doc.bands.gaps.some((g: { below_hz: number; above_hz: number }) => g.below_hz < m.frequency_hz && m.frequency_hz < g.above_hz)).toBe(true);
+    }
+  });
+
+  it('a board without a lattice is refused with exit 2', () => {
+    const r = runCli(['predict', 'shared/boards/tank-3.json', '--bands']);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(/--bands: board tank-3 has no lattice section/);
+  });
+});
