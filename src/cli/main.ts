@@ -1,6 +1,8 @@
 // Entry point of the `topoprobe` command: one verb per module, every error through one reporter.
 import { Command, CommanderError } from 'commander';
 import { predictCommand } from './predict-command.js';
+import { simCommand } from './sim-command.js';
+import { portsCommand } from './ports-command.js';
 import { reportError } from './report-error.js';
 import { EXIT } from './exit-codes.js';
 import { VERSION } from '../version.js';
@@ -13,7 +15,9 @@ export function buildProgram(): Command {
     )
     .version(VERSION, '-V, --version')
     .showHelpAfterError('(run with --help for usage)')
-    .addCommand(predictCommand());
+    .addCommand(predictCommand())
+    .addCommand(simCommand())
+    .addCommand(portsCommand());
   program.exitOverride();
   for (const cmd of program.commands) cmd.exitOverride().showHelpAfterError(`(run "topoprobe ${cmd.name()} --help" for usage)`);
   return program;
@@ -23,7 +27,7 @@ export async function main(argv: string[]): Promise<number> {
   const program = buildProgram();
   try {
     await program.parseAsync(argv, { from: 'user' });
-    return EXIT.ok;
+    return typeof process.exitCode === 'number' ? process.exitCode : EXIT.ok;
   } catch (err) {
     if (err instanceof CommanderError) {
       // commander has already printed its one-line message (or the help/version text).

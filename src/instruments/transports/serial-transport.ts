@@ -1,0 +1,102 @@
+// A serial port (RS-232, USB CDC/ACM, USB-serial adapter) behind the Transport interface, through the
+// serialport library. The port object is made afresh on every open, so close and reopen (a reconnect)
+// start from a clean state.
+
+import { SerialPort } from 'serialport';
+import { TransportError, type Transport } from '../transport.js';
+import { openFailure } from './serial-failures.js';
+
+export type Parity = 'none' | 'even' | 'odd' | 'mark' | 'space';
+export type FlowControl = 'none' | 'rtscts' | 'xonxoff';
+export type DataBits = 5 | 6 | 7 | 8;
+export type StopBits = 1 | 1.5 | 2;
+
+export interface SerialSettings {
+  /** Device path: /dev/ttyUSB0, /dev/serial/by-id/..., COM3. */
+  path: string;
+  baudRate: number;
+  dataBits?: DataBits;
+  parity?: Parity;
+  stopBits?: StopBits;
+  /** Hardware (RTS/CTS) or software (XON/XOFF) flow control; default none. */
+  flowControl?: FlowControl;
+}
+
+export const DISCONNECTED_REASON = 'closed by peer: the port went away (cable or adapter unplugged, or the instrument switched off)';
+
+export class SerialTransport implements Transport {
+  readonly medium = 'serial' as const;
+  readonly endpoint: string;
+  private port?: SerialPort;
+  private receiver?: (chunk: Uint8Array) => void;
+  private closeListener?: (reason: string) => void;
+
+  constructor(readonly settings: SerialSettings) {
+    this.endpoint = settings.path;
+  }
+
+  get isOpen(): boolean {
+    return this.port?.isOpen ?? false;
+  }
+
+  async open(): Promise<void> {
+    if (this.isOpen) return;
+    const s = this.settings;
+    let port: SerialPort;
+    try {
+      port = new SerialPort({
+        path: s.path,
+        baudRate: s.baudRate,
+        dataBits: s.dataBits ?? 8,
+        parity: s.parity ?? 'none',
+        stopBits: s.stopBits ?? 1,
+        rtscts: s.flowControl === 'rtscts',
+        xon: s.flowControl === 'xonxoff',
+        xoff: s.flowControl === 'xonxoff',
+        autoOpen: false,
+      });
+    } catch (error) {
+      // The constructor throws on settings it cannot use (a baud rate of 0, an unknown parity).
+      throw new TransportError(s.path, 'other', `serial settings not accepted: ${(error as Error).message}`);
+    }
+    await new Promise<void>((resolve, reject) => port.open((err) => (err ? reject(openFailure(s.path, err)) : resolve())));
+    port.on('data', (chunk: Buffer) => this.receiver?.(chunk));
+    // Failures reach us through callbacks and the close event; an 'error' event without a listener would
+    // throw out of the event loop and end the process, losing the readings in memory.
+    port.on('error', () => undefined);
+    port.on('close', (err: (Error & { disconnected?: boolean }) | null) => {
+      if (this.port !== port) return; // our own close(): not news to anyone
+      this.port = undefined;
+      this.closeListener?.(err?.disconnected ? DISCONNECTED_REASON : `closed: ${err?.message ?? 'the port closed'}`);
+    });
+    this.port = port;
+    // Bytes an instrument sent before we listened (a power-on banner, a late answer to the last session)
+    // would otherwise become the answer to our first query.
+    await new Promise<void>((resolve) => port.flush(() => resolve()));
+  }
+
+  write(data: Uint8Array | string): Promise<void> {
+    const port = this.port;
+    if (!port?.isOpen) return Promise.reject(new TransportError(this.endpoint, 'closed', 'not open'));
+    return new Promise((resolve, reject) => {
+      port.write(typeof data === 'string' ? Buffer.from(data, 'latin1') : Buffer.from(data), (err) =>
+        err ? reject(new TransportError(this.endpoint, 'closed', `write failed: ${err.message}`)) : resolve(),
+      );
+    });
+  }
+
+  onData(receiver: (chunk: Uint8Array) => void): void {
+    this.receiver = receiver;
+  }
+
+  onClose(listener: (reason: string) => void): void {
+    this.closeListener = listener;
+  }
+
+  async close(): Promise<void> {
+    const port = this.port;
+    this.port = undefined;
+    if (!port?.isOpen) return;
+    await new Promise<void>((resolve) => port.close(() => resolve()));
+  }
+}
