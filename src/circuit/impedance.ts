@@ -1,12 +1,16 @@
 // Impedances read off J(w)^-1: node to ground (a diagonal entry), two-point (a quadratic form in e_a - e_b)
 // and transfer (an off-diagonal entry: voltage at one node per unit current driven into another).
 // One factorization per frequency; the symbolic analysis is shared by every frequency of the board.
+// All node-to-ground impedances at once come from selected inversion of the same factors.
 import { GROUND, type Part } from '../board/types.js';
 import type { ComplexCsc, ComplexVector } from '../numeric/types.js';
 import { analyzeLu, type LuSymbolic } from '../numeric/lu-symbolic.js';
 import { factorLu, refactorLu, SingularMatrixError, type LuFactors } from '../numeric/lu-numeric.js';
 import { solveLu } from '../numeric/lu-solve.js';
+import { diagonalOfInverse } from '../numeric/selected-inverse.js';
+import { fittingInversePattern, type SelectedInversePattern } from '../numeric/selected-inverse-pattern.js';
 import { estimateReciprocalCondition, relativeResidual } from '../numeric/condition.js';
+import { complexNormInf } from '../numeric/csc.js';
 import type { Complex } from './admittance.js';
 import { GroundedLaplacian } from './laplacian.js';
 
@@ -21,6 +25,8 @@ export class ImpedanceSolver {
   readonly laplacian: GroundedLaplacian;
   private readonly symbolic: LuSymbolic;
   private last?: LuFactors;
+  /** Selected-inversion pattern, shared by the frequencies that replay the same pivot sequence. */
+  private readonly inversePattern: InversePatternSlot = {};
 
   constructor(laplacian: GroundedLaplacian, private readonly partMap?: (part: Part) => Part) {
     this.laplacian = laplacian;
@@ -43,13 +49,15 @@ export class ImpedanceSolver {
       throw err;
     }
     this.last = factors;
-    return new SolvedFrequency(frequencyHz, this.laplacian, matrix, factors);
+    return new SolvedFrequency(frequencyHz, this.laplacian, matrix, factors, this.inversePattern);
   }
 }
 
 export class SolvedFrequency {
   private readonly columns = new Map<number, ComplexVector>();
   private rcondCache?: number;
+  private normInf?: number;
+  private diagonal?: ComplexVector;
   /** Largest relative residual of any solve made at this frequency. */
   worstResidual = 0;
 
@@ -58,6 +66,7 @@ export class SolvedFrequency {
     private readonly laplacian: GroundedLaplacian,
     readonly matrix: ComplexCsc,
     private readonly factors: LuFactors,
+    private readonly inversePattern: InversePatternSlot = {},
   ) {}
 
   /** Reciprocal 1-norm condition estimate of J here; tiny near a resonance of a low-loss board. */
@@ -78,9 +87,23 @@ export class SolvedFrequency {
     return col;
   }
 
-  /** Node-to-ground impedance. */
+  /**
+   * Every node-to-ground impedance (the diagonal of J^-1), in the order of laplacian.index.names, by
+   * selected inversion: about the cost of one more factorization instead of one solve per node.
+   */
+  allToGround(): ComplexVector {
+    if (!this.diagonal) {
+      const pattern = fittingInversePattern(this.inversePattern.current, this.factors);
+      this.inversePattern.current = pattern;
+      this.diagonal = diagonalOfInverse(this.factors, { pattern });
+    }
+    return { re: this.diagonal.re.slice(), im: this.diagonal.im.slice() };
+  }
+
+  /** Node-to-ground impedance; read from allToGround's result once that has been computed. */
   toGround(node: string): Complex {
     const row = this.laplacian.index.row(node);
+    if (row >= 0 && this.diagonal) return { re: this.diagonal.re[row], im: this.diagonal.im[row] };
     const v = this.responseTo(node);
     return { re: v.re[row], im: v.im[row] };
   }
@@ -112,8 +135,14 @@ export class SolvedFrequency {
     const b: ComplexVector = { re: new Float64Array(n), im: new Float64Array(n) };
     for (const [row, value] of entries) b.re[row] = value;
     const x = solveLu(this.factors, b);
-    const r = relativeResidual(this.matrix, x, b);
+    this.normInf ??= complexNormInf(this.matrix);
+    const r = relativeResidual(this.matrix, x, b, this.normInf);
     if (r > this.worstResidual) this.worstResidual = r;
     return x;
   }
+}
+
+/** Holder through which the frequencies of one solver pass the selected-inversion pattern along. */
+export interface InversePatternSlot {
+  current?: SelectedInversePattern;
 }

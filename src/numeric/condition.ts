@@ -56,7 +56,8 @@ export function estimateInverseNorm1(f: LuFactors, maxIterations = 5): number {
 }
 
 /** ‖A x − b‖∞ / (‖A‖∞ ‖x‖∞ + ‖b‖∞): a backward-error measure, about machine epsilon for a stable solve. */
-export function relativeResidual(A: ComplexCsc, x: ComplexVector, b: ComplexVector): number {
+/** `normA`: ‖A‖∞ when the caller already has it (many solves with one matrix). */
+export function relativeResidual(A: ComplexCsc, x: ComplexVector, b: ComplexVector, normA?: number): number {
   const ax = complexMatVec(A, x);
   let r = 0;
   for (let i = 0; i < A.n; i++) {
@@ -64,7 +65,7 @@ export function relativeResidual(A: ComplexCsc, x: ComplexVector, b: ComplexVect
     const di = ax.im[i] - b.im[i];
     r = Math.max(r, Math.sqrt(dr * dr + di * di));
   }
-  const scale = complexNormInf(A) * normInf(x) + normInf(b);
+  const scale = (normA ?? complexNormInf(A)) * normInf(x) + normInf(b);
   if (scale === 0) return r === 0 ? 0 : Infinity;
   return r / scale;
 }
