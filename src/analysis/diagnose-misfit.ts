@@ -1,0 +1,64 @@
+// How badly a set of predicted readings misses the measured ones. Each reading is compared as the
+// complex logarithm of measured / predicted: its real part is the error in ln|Z| and its imaginary part
+// the phase error, so small and large impedances weigh alike and a reading relative error ε costs the
+// same anywhere on the board. In units of the reading's noise, a Huber loss (quadratic up to a knee,
+// linear beyond; P. J. Huber, Ann. Math. Stat. 35, 73 (1964)) keeps a few wild readings from deciding
+// the ranking alone, while noise-sized errors count as in least squares.
+import type { PreparedScan } from './diagnose-scan.js';
+
+/** Errors beyond this many noise widths count linearly. */
+const HUBER_KNEE = 3;
+/** Impedances below this (ohms) are compared as this: a log needs a floor. */
+const FLOOR_OHMS = 1e-9;
+const FLOOR_SQUARED = FLOOR_OHMS * FLOOR_OHMS;
+
+export class MisfitMeter {
+  private readonly measuredRe: Float64Array;
+  private readonly measuredIm: Float64Array;
+  private readonly lnMeasured2: Float64Array;
+  private readonly inverseNoise2: number;
+
+  constructor(
+    scan: PreparedScan,
+    readonly noise: number,
+  ) {
+    const n = scan.readings.length;
+    this.measuredRe = new Float64Array(n);
+    this.measuredIm = new Float64Array(n);
+    this.lnMeasured2 = new Float64Array(n);
+    scan.readings.forEach((r, i) => {
+      this.measuredRe[i] = r.measured.re;
+      this.measuredIm[i] = r.measured.im;
+      this.lnMeasured2[i] = Math.log(Math.max(r.measured.re ** 2 + r.measured.im ** 2, FLOOR_SQUARED));
+    });
+    this.inverseNoise2 = 1 / (noise * noise);
+  }
+
+  get count(): number {
+    return this.measuredRe.length;
+  }
+
+  /** Mean loss per reading of `predicted` (re and im interleaved, one pair per reading). */
+  of(predicted: Float64Array): number {
+    let total = 0;
+    for (let i = 0; i < this.measuredRe.length; i++) total += this.lossAt(i, predicted[2 * i], predicted[2 * i + 1]);
+    return total / this.measuredRe.length;
+  }
+
+  /** Loss of one reading against a predicted value. */
+  lossAt(i: number, re: number, im: number): number {
+    const z2 = re * re + im * im;
+    if (!Number.isFinite(z2)) return huberOfSquare(1e12);
+    const mRe = this.measuredRe[i];
+    const mIm = this.measuredIm[i];
+    // measured * conj(predicted): its angle is the phase error, and ln|.|^2 follows from the two norms.
+    const phase = Math.atan2(mIm * re - mRe * im, mRe * re + mIm * im);
+    const lnMagnitude = 0.5 * (this.lnMeasured2[i] - Math.log(Math.max(z2, FLOOR_SQUARED)));
+    return huberOfSquare((lnMagnitude * lnMagnitude + phase * phase) * this.inverseNoise2);
+  }
+}
+
+/** Huber loss of t, given t² (the square root is only needed beyond the knee). */
+function huberOfSquare(t2: number): number {
+  return t2 <= HUBER_KNEE * HUBER_KNEE ? t2 : HUBER_KNEE * (2 * Math.sqrt(t2) - HUBER_KNEE);
+}
