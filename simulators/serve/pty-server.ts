@@ -3,6 +3,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { SerialPort } from 'serialport';
 import type { SimulatedDevice } from '../device.js';
+import { LinePacer } from './line-pacer.js';
 import { serveDevice, type ServeOptions } from './serve-device.js';
 import type { RunningServer } from './tcp-server.js';
 
@@ -30,16 +31,25 @@ export function ptyPair(): Promise<{ process: ChildProcess; ends: [string, strin
   });
 }
 
-export async function servePty(device: SimulatedDevice, options: ServeOptions & { baudRate?: number } = {}): Promise<RunningServer> {
+export interface PtyServeOptions extends ServeOptions {
+  baudRate?: number;
+  /** Pace both directions at this line rate (a pty has none of its own): see line-pacer.ts. */
+  paceBaud?: number;
+}
+
+export async function servePty(device: SimulatedDevice, options: PtyServeOptions = {}): Promise<RunningServer> {
   const { process: socat, ends } = await ptyPair();
   const port = new SerialPort({ path: ends[0], baudRate: options.baudRate ?? 115200, autoOpen: false });
   await new Promise<void>((resolve, reject) => port.open((err) => (err ? reject(err) : resolve())));
+  const incoming = options.paceBaud !== undefined ? new LinePacer(options.paceBaud) : undefined;
+  const outgoing = options.paceBaud !== undefined ? new LinePacer(options.paceBaud) : undefined;
+  const writeNow = (bytes: Uint8Array) => {
+    if (port.isOpen) port.write(Buffer.from(bytes));
+  };
   const feed = serveDevice(
     device,
     {
-      write: (bytes) => {
-        if (port.isOpen) port.write(Buffer.from(bytes));
-      },
+      write: (bytes) => (outgoing ? outgoing.send(bytes.length, () => writeNow(bytes)) : writeNow(bytes)),
       // An unplugged adapter: the pair disappears, the client's port errors out.
       drop: () => {
         port.close(() => undefined);
@@ -48,7 +58,7 @@ export async function servePty(device: SimulatedDevice, options: ServeOptions & 
     },
     options,
   );
-  port.on('data', feed);
+  port.on('data', (chunk: Buffer) => (incoming ? incoming.send(chunk.length, () => feed(chunk)) : feed(chunk)));
   port.on('error', () => undefined);
   return {
     endpoint: ends[1],

@@ -4,7 +4,7 @@ import { type DraftPart, type RefUse } from './draft.js';
 import { joinPath, type ProblemLog } from './errors.js';
 import { readNodeName } from './node-names.js';
 import { readPartValues, seriesResistance } from './part-values.js';
-import { ComponentShape } from './schema.js';
+import { ComponentShape, RatingInput } from './schema.js';
 import { readShape } from './shape-check.js';
 
 export interface ComponentsResult {
@@ -30,8 +30,12 @@ export function readComponents(raw: readonly unknown[], log: ProblemLog): Compon
 }
 
 function readComponent(entry: unknown, path: string, log: ProblemLog, nodesSeen: Map<string, string>): DraftPart | undefined {
-  const shape = readShape(ComponentShape, entry, path, log);
-  if (!shape) return undefined;
+  // The optional voltage rating is taken off before the shape check, which then speaks of the fields
+  // that make up the part's value and ends only.
+  const { entry: rest, rating } = takeRating(entry, path, log);
+  const found = readShape(ComponentShape, rest, path, log);
+  if (!found) return undefined;
+  const shape = rating === undefined ? found : { ...found, rating };
   let usable = true;
   const nodes = shape.nodes.map((rawName, end) => {
     const read = readNodeName(rawName);
@@ -58,9 +62,18 @@ function readComponent(entry: unknown, path: string, log: ProblemLog, nodesSeen:
     refPath: joinPath(path, 'ref'),
   };
   if (values.tolerance !== undefined) part.tolerance = values.tolerance;
+  if (values.rating !== undefined) part.rating_v = values.rating;
   if (values.loss) {
     part.loss = values.loss;
     part.esr = seriesResistance(shape.kind, values.value, values.loss);
   }
   return part;
+}
+
+function takeRating(entry: unknown, path: string, log: ProblemLog): { entry: unknown; rating?: number | string } {
+  if (entry === null || typeof entry !== 'object' || Array.isArray(entry) || !('rating' in entry)) return { entry };
+  const { rating, ...rest } = entry as Record<string, unknown>;
+  const parsed = RatingInput.safeParse(rating);
+  if (!parsed.success) log.add(joinPath(path, 'rating'), 'must be a voltage such as "50V" or 50');
+  return { entry: rest, rating: parsed.success ? parsed.data : undefined };
 }

@@ -18,5 +18,6 @@ export function finishPart(draft: DraftPart): Part {
   const part: Part = { ref: draft.ref, kind: draft.kind, nodes: draft.nodes, value: draft.value, origin: draft.origin };
   if (draft.tolerance !== undefined) part.tolerance = draft.tolerance;
   if (draft.esr !== undefined) part.esr = draft.esr;
+  if (draft.rating_v !== undefined) part.rating_v = draft.rating_v;
   return part;
 }

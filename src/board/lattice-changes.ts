@@ -28,7 +28,7 @@ export function applyLatticeChanges(spec: LatticeSpec, lattice: LatticeExpansion
 }
 
 function applyChange(change: RawChange, index: number, path: string, spec: LatticeSpec, lattice: LatticeExpansion, log: ProblemLog): void {
-  const setsValues = (['value', 'tolerance', 'esr', 'q', 'q_at'] as const).some((f) => change[f] !== undefined);
+  const setsValues = (['value', 'tolerance', 'esr', 'q', 'q_at', 'rating'] as const).some((f) => change[f] !== undefined);
   const actions = [setsValues, change.remove === true, change.add !== undefined].filter(Boolean).length;
   if (actions === 0) return log.add(path, 'does nothing; give new values (value, tolerance, esr, q), remove: true, or add');
   if (actions > 1) return log.add(path, 'does more than one thing; give only one of new values, remove: true or add');
@@ -48,6 +48,7 @@ function applyChange(change: RawChange, index: number, path: string, spec: Latti
   for (const part of targets) {
     if (values.value !== undefined) part.value = values.value;
     if (values.tolerance !== undefined) part.tolerance = values.tolerance;
+    if (values.rating !== undefined) part.rating_v = values.rating;
     if (values.loss) part.loss = values.loss;
     part.esr = seriesResistance(part.kind, part.value, part.loss);
     if (part.esr === undefined) delete part.esr;
@@ -129,6 +130,7 @@ function addParts(change: RawChange, index: number, path: string, spec: LatticeS
     const origin = `${addPath} cell ${cellLabel(cell)}`;
     const part: DraftPart = { ref: latticeRef(add.kind, id, cell), kind: add.kind, nodes: [from, to], value: values.value, origin, refPath: origin };
     if (values.tolerance !== undefined) part.tolerance = values.tolerance;
+    if (values.rating !== undefined) part.rating_v = values.rating;
     if (values.loss) {
       part.loss = values.loss;
       part.esr = seriesResistance(add.kind, values.value, values.loss);

@@ -52,6 +52,7 @@ export function expandLattice(spec: LatticeSpec, log: ProblemLog): LatticeExpans
   const place = (source: CellPartSpec, ref: string, ends: [string, string], origin: string) => {
     const part: DraftPart = { ref, kind: source.kind, nodes: ends, value: source.value, origin, refPath: origin };
     if (source.tolerance !== undefined) part.tolerance = source.tolerance;
+    if (source.rating !== undefined) part.rating_v = source.rating;
     if (source.loss) {
       part.loss = source.loss;
       part.esr = seriesResistance(source.kind, source.value, source.loss);

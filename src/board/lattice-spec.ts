@@ -28,6 +28,8 @@ export interface CellPartSpec {
   value: number;
   tolerance?: number;
   loss?: Loss;
+  /** Voltage rating, volts. */
+  rating?: number;
   path: string;
 }
 
@@ -175,7 +177,7 @@ function readBond(entry: unknown, path: string, sites: string[] | undefined, dim
   }
   const values = readPartValues(shape, shape.kind, path, log);
   if (log.count !== before || !values || values.value === undefined) return undefined;
-  return { id: shape.id ?? '', kind: shape.kind, from: shape.from, to: shape.to, offset, value: values.value, tolerance: values.tolerance, loss: values.loss, path };
+  return { id: shape.id ?? '', kind: shape.kind, from: shape.from, to: shape.to, offset, value: values.value, tolerance: values.tolerance, loss: values.loss, rating: values.rating, path };
 }
 
 function readGround(entry: unknown, path: string, sites: string[] | undefined, dimensions: number, log: ProblemLog): CellPartSpec | undefined {
@@ -186,7 +188,7 @@ function readGround(entry: unknown, path: string, sites: string[] | undefined, d
   const values = readPartValues(shape, shape.kind, path, log);
   if (log.count !== before || !values || values.value === undefined) return undefined;
   const offset = new Array(dimensions).fill(0);
-  return { id: shape.id ?? '', kind: shape.kind, from: shape.site, to: GROUND, offset, value: values.value, tolerance: values.tolerance, loss: values.loss, path };
+  return { id: shape.id ?? '', kind: shape.kind, from: shape.site, to: GROUND, offset, value: values.value, tolerance: values.tolerance, loss: values.loss, rating: values.rating, path };
 }
 
 /** Whether `name` is a site; without a usable site list (already reported) every name passes. */

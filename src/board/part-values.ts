@@ -20,12 +20,15 @@ export interface RawValueFields {
   esr?: number | string;
   q?: number;
   q_at?: number | string;
+  rating?: number | string;
 }
 
 export interface PartValues {
   value?: number;
   tolerance?: number;
   loss?: Loss;
+  /** Voltage rating, volts. */
+  rating?: number;
 }
 
 /** Reads the fields that are present; returns undefined if any of them is wrong (problems logged). */
@@ -43,6 +46,7 @@ export function readPartValues(raw: RawValueFields, kind: PartKind, path: string
   };
   if (raw.value !== undefined) out.value = read('value', () => parseQuantity(raw.value, UNIT_OF_KIND[kind]));
   if (raw.tolerance !== undefined) out.tolerance = read('tolerance', () => parsePercent(raw.tolerance));
+  if (raw.rating !== undefined) out.rating = read('rating', () => parseQuantity(raw.rating, 'V'));
 
   if (kind === 'R') {
     for (const field of ['esr', 'q', 'q_at'] as const) {

@@ -40,6 +40,10 @@ const partValueFields = {
   q_at: ValueInput.optional(),
 };
 
+/** A part's voltage rating ("50V"); read beside the value fields (components read it before their shape check). */
+export const RatingInput = ValueInput;
+const ratingField = { rating: RatingInput.optional() };
+
 export const ComponentShape = z.strictObject({
   ref: z.string().min(1, 'must not be empty'),
   kind: KindInput,
@@ -96,6 +100,7 @@ export const BondShape = z.strictObject({
   offset: Offset.optional(),
   kind: KindInput,
   ...partValueFields,
+  ...ratingField,
 });
 export type RawBond = z.infer<typeof BondShape>;
 
@@ -104,6 +109,7 @@ export const GroundShape = z.strictObject({
   site: SiteName,
   kind: KindInput,
   ...partValueFields,
+  ...ratingField,
 });
 export type RawGround = z.infer<typeof GroundShape>;
 
@@ -121,6 +127,7 @@ export const ChangeShape = z.strictObject({
   esr: ValueInput.optional(),
   q: partValueFields.q,
   q_at: ValueInput.optional(),
+  rating: RatingInput.optional(),
   remove: z.literal(true, { error: () => 'must be true (leave it out to keep the part)' }).optional(),
   add: z
     .strictObject({
@@ -130,6 +137,7 @@ export const ChangeShape = z.strictObject({
       offset: Offset.optional(),
       kind: KindInput,
       ...partValueFields,
+      ...ratingField,
     })
     .optional(),
 });

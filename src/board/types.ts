@@ -18,6 +18,8 @@ export interface Part {
   tolerance?: number;
   /** Series resistance in ohms for C and L (an inductor's Q at a frequency is converted to this). */
   esr?: number;
+  /** Largest voltage the part may see, in volts (board field `rating`), if stated. */
+  rating_v?: number;
   /** Where in the file the part came from, e.g. "components[3]" or "lattice.bonds[1] cell (2,0)". */
   origin: string;
 }

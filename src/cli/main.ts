@@ -1,8 +1,14 @@
 // Entry point of the `topoprobe` command: one verb per module, every error through one reporter.
 import { Command, CommanderError } from 'commander';
 import { predictCommand } from './predict-command.js';
+import { planCommand } from './plan-command.js';
 import { simCommand } from './sim-command.js';
 import { portsCommand } from './ports-command.js';
+import { runCommand } from './run-command.js';
+import { checkCommand } from './check-command.js';
+import { diagnoseCommand } from './diagnose-command.js';
+import { fitCommand } from './fit-command.js';
+import { reportCommand } from './report-command.js';
 import { reportError } from './report-error.js';
 import { EXIT } from './exit-codes.js';
 import { VERSION } from '../version.js';
@@ -16,8 +22,14 @@ export function buildProgram(): Command {
     .version(VERSION, '-V, --version')
     .showHelpAfterError('(run with --help for usage)')
     .addCommand(predictCommand())
+    .addCommand(planCommand())
     .addCommand(simCommand())
-    .addCommand(portsCommand());
+    .addCommand(portsCommand())
+    .addCommand(runCommand())
+    .addCommand(checkCommand())
+    .addCommand(diagnoseCommand())
+    .addCommand(fitCommand())
+    .addCommand(reportCommand());
   program.exitOverride();
   for (const cmd of program.commands) cmd.exitOverride().showHelpAfterError(`(run "topoprobe ${cmd.name()} --help" for usage)`);
   return program;

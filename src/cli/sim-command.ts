@@ -26,6 +26,7 @@ interface SimOptions {
   stuck: string[];
   misbehave: string[];
   terminator: string;
+  paceBaud?: string;
 }
 
 const collect = (value: string, previous: string[] = []) => [...previous, value];
@@ -45,6 +46,7 @@ export function simCommand(): Command {
     .option('--stuck <CH=open|closed>', 'a relay that ignores commands; repeatable', collect, [])
     .option('--misbehave <TARGET:KIND[=ARGS]>', 'link trouble for reliability tests, e.g. analyzer:late=0.1:3000, switch:disconnect=50, both:errors=20; repeatable', collect, [])
     .option('--terminator <lf|crlf|cr>', 'response terminator (both accept any on input)', 'lf')
+    .option('--pace-baud <baud>', 'with --pty: carry bytes no faster than a serial line at this rate, 10 bits a byte (a pty has no rate of its own)')
     .addHelpText(
       'after',
       `
@@ -78,6 +80,12 @@ async function runSim(options: SimOptions): Promise<number> {
     if (!Number.isInteger(port) || port < 0 || port > 65534) throw new UsageError(`--tcp ${options.tcp}: expected a port number from 0 to 65534`);
   }
   const terminator = parseTerminator(options.terminator);
+  let paceBaud: number | undefined;
+  if (options.paceBaud !== undefined) {
+    paceBaud = Number(options.paceBaud);
+    if (!options.pty) throw new UsageError('--pace-baud goes with --pty');
+    if (!Number.isInteger(paceBaud) || paceBaud < 50 || paceBaud > 4_000_000) throw new UsageError(`--pace-baud ${options.paceBaud}: expected a baud rate from 50 to 4000000, e.g. 115200`);
+  }
   const stuck = parseStuck(options.stuck);
   const misbehaviour = parseMisbehaviour(options.misbehave, seed);
 
@@ -99,7 +107,7 @@ async function runSim(options: SimOptions): Promise<number> {
   const serve = async (device: SimulatedDevice, which: 'analyzer' | 'switch', offset: number): Promise<RunningServer> => {
     const m = misbehaviour[which];
     const serveOptions = { terminator, misbehaviour: m ? new Misbehaviour(m) : undefined };
-    if (options.pty) return servePty(device, serveOptions);
+    if (options.pty) return servePty(device, { ...serveOptions, paceBaud });
     return serveTcp(device, port === 0 ? 0 : port + offset, serveOptions);
   };
   const servers: RunningServer[] = [];

@@ -1,0 +1,28 @@
+// A request to stop, raised once (Ctrl-C, SIGTERM, the operator leaving) and heard by everything that
+// waits. The runner never breaks off a command half way: it finishes the reading in hand, logs it, and
+// then stops, so nothing measured is lost and the instruments are never left mid-conversation.
+import { ReplaySubject, type Observable } from 'rxjs';
+
+export class StopSignal {
+  private readonly raised = new ReplaySubject<string>(1);
+  private why?: string;
+
+  /** Emits the reason once, when a stop is first requested (at once for a late subscriber). */
+  readonly requested$: Observable<string> = this.raised.asObservable();
+
+  get requested(): boolean {
+    return this.why !== undefined;
+  }
+
+  get reason(): string | undefined {
+    return this.why;
+  }
+
+  /** Asks for a stop; later requests change nothing (a second Ctrl-C does not skip the safe stop). */
+  request(reason: string): void {
+    if (this.why !== undefined) return;
+    this.why = reason;
+    this.raised.next(reason);
+    this.raised.complete();
+  }
+}

@@ -1,0 +1,166 @@
+// End to end through the serial path: `topoprobe sim --pty` in its own process (socat pseudo-terminals,
+// the real serialport stack on both ends) and `topoprobe run --analyzer PTY --switch PTY` with the
+// planner's own plan for the demo chain, bands from Monte Carlo over the part tolerances. A seeded fault
+// is flagged near the part and not far from it; killing the runner at random moments and resuming gives
+// the readings of an uninterrupted run, none twice; Ctrl-C leaves every relay open (asked of the matrix
+// over its port), the excitation at its minimum and the log interrupted.
+import { appendFileSync, existsSync, mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { builtinProfile, ScpiSession, SerialTransport, sessionFor, type AnalyzerProfile } from '../../src/instruments/index.js';
+import { seededRandom } from '../support/make-board.js';
+import { toolAvailable } from '../support/requirements.js';
+import { runCli } from '../support/run-cli.js';
+import { startSim, type SimProcess } from '../support/sim-process.js';
+import { loggedRows, planKeys, readMetaFile, startRun } from './support/run-process.js';
+
+const run = toolAvailable('socat');
+let dir: string;
+let planFile: string;
+
+/** Node number of a terminal (n13 -> 13); ground counts as far from everything. */
+const nodeNumber = (name: string) => (name === 'gnd' ? Infinity : Number(name.slice(1)));
+
+async function ask(port: string, profileName: 'generic-switch' | 'generic-analyzer', query: string): Promise<string> {
+  const profile = builtinProfile(profileName);
+  const session: ScpiSession = sessionFor(profile, new SerialTransport({ path: port, baudRate: 115200 }));
+  await session.open();
+  try {
+    return await session.query(query);
+  } finally {
+    await session.close();
+  }
+}
+
+describe.skipIf(!run)('run over pseudo-terminals', () => {
+  beforeAll(() => {
+    dir = mkdtempSync(path.join(tmpdir(), 'topoprobe-run-pty-'));
+    planFile = path.join(dir, 'chain-24.plan.json');
+    const made = runCli(['plan', 'shared/boards/chain-24.yaml', '-o', planFile]);
+    expect(made.status).toBe(0);
+  });
+
+  describe('a seeded fault (C_intra_0 open, between n1 and n2)', () => {
+    let faulty: SimProcess;
+    let clean: SimProcess;
+    beforeAll(async () => {
+      [faulty, clean] = await Promise.all([startSim(['--pty', '--timing', 'instant', '--fault', 'C_intra_0=open']), startSim(['--pty', '--timing', 'instant'])]);
+    });
+    afterAll(async () => {
+      await faulty?.stop();
+      await clean?.stop();
+    });
+
+    it('is flagged at the nodes it affects and not at far nodes; the same plan on a good board flags nothing', () => {
+      const faultLog = path.join(dir, 'fault.csv');
+      const r = runCli(['run', planFile, '--analyzer', faulty.endpoints.analyzer, '--switch', faulty.endpoints.switch, '--log', faultLog]);
+      expect(r.status).toBe(1);
+      const rows = loggedRows(faultLog);
+      expect(rows.map((x) => `${x.step}:${x.point}`)).toEqual(planKeys(planFile));
+      const flagged = rows.filter((x) => x.flag !== 'ok');
+      // n1 carries the left edge mode, which the missing coupling to n2 destroys.
+      expect(flagged.some((x) => x.hi === 'n1')).toBe(true);
+      // Eleven cells away the edge mode has decayed by (10/33)^11 (Asboth et al., LNP 919, ch. 1): nothing there moves.
+      const far = rows.filter((x) => [x.hi, x.lo, x.sense || 'gnd'].every((n) => nodeNumber(n) >= 13));
+      expect(far.length).toBeGreaterThan(100);
+      expect(far.filter((x) => x.flag !== 'ok')).toEqual([]);
+      expect(readMetaFile(faultLog)).toMatchObject({ status: 'complete' });
+
+      const cleanLog = path.join(dir, 'clean.csv');
+      const ok = runCli(['run', planFile, '--analyzer', clean.endpoints.analyzer, '--switch', clean.endpoints.switch, '--log', cleanLog]);
+      expect(ok.status).toBe(0);
+      expect(loggedRows(cleanLog).filter((x) => x.flag !== 'ok')).toEqual([]);
+    });
+  });
+
+  describe('kill -9 at random moments', () => {
+    let sim: SimProcess;
+    beforeAll(async () => {
+      sim = await startSim(['--pty', '--timing', 'instant']);
+    });
+    afterAll(async () => {
+      await sim?.stop();
+    });
+
+    it('and resuming gives the same readings as an uninterrupted run, none twice, a torn line dropped', async () => {
+      const bench = ['--analyzer', sim.endpoints.analyzer, '--switch', sim.endpoints.switch];
+      const whole = path.join(dir, 'whole.csv');
+      expect(runCli(['run', planFile, ...bench, '--log', whole]).status).toBe(0);
+      const expected = loggedRows(whole).map((x) => `${x.step}:${x.point}`);
+      expect(expected).toEqual(planKeys(planFile));
+
+      const log = path.join(dir, 'killed.csv');
+      const random = seededRandom(2024);
+      let kills = 0;
+      let tornDropped = false;
+      // Five runs killed at random moments (or finishing first), then one left to finish.
+      for (let round = 0; round < 6; round++) {
+        const resume = existsSync(`${log}.meta.json`);
+        if (resume && !tornDropped) appendFileSync(log, '7,1,to-ground,n7,g'); // a write cut off half way
+        const child = startRun([planFile, ...bench, '--log', log, ...(resume ? ['--resume'] : [])]);
+        // Start-up takes about a second and a half; the scan about four more.
+        const at = 1200 + Math.floor(random() * 3500);
+        const timer = round < 5 ? setTimeout(() => child.child.kill('SIGKILL'), at) : undefined;
+        const { code, signal } = await child.exited;
+        clearTimeout(timer);
+        if (/dropped a torn last line/.test(child.stderr())) tornDropped = true;
+        if (signal === 'SIGKILL') {
+          kills++;
+          continue;
+        }
+        expect(child.stderr()).not.toMatch(/^\s+at /m);
+        expect(code).toBe(0);
+        break;
+      }
+      expect(kills).toBeGreaterThan(0);
+      expect(tornDropped).toBe(true);
+      const got = loggedRows(log).map((x) => `${x.step}:${x.point}`);
+      expect(new Set(got).size).toBe(got.length);
+      expect([...got].sort()).toEqual([...expected].sort());
+      const meta = readMetaFile(log);
+      expect(meta.status).toBe('complete');
+      expect(meta.readings).toBe(expected.length);
+      // Each run that got as far as opening the log left its record (a kill during start-up leaves none).
+      expect(meta.runs.length).toBeGreaterThanOrEqual(2);
+      expect(meta.runs.length).toBeLessThanOrEqual(kills + 1);
+      expect(meta.runs.slice(0, -1).every((r) => r.status === 'interrupted')).toBe(true);
+      expect(readFileSync(log, 'utf8').endsWith('\r\n')).toBe(true);
+    });
+  });
+
+  describe('Ctrl-C', () => {
+    let sim: SimProcess;
+    beforeAll(async () => {
+      // Realistic timing: 20 ms + 5 ms per average a reading, so there is a scan to interrupt.
+      sim = await startSim(['--pty', '--timing', 'realistic']);
+    });
+    afterAll(async () => {
+      await sim?.stop();
+    });
+
+    it('leaves every relay open and the excitation at its minimum, the log interrupted, exit 130, even pressed twice', async () => {
+      const log = path.join(dir, 'aborted.csv');
+      const child = startRun([planFile, '--analyzer', sim.endpoints.analyzer, '--switch', sim.endpoints.switch, '--log', log, '--json']);
+      const lines = await child.lines(6);
+      expect(JSON.parse(lines[0]).event).toBe('started');
+      child.child.kill('SIGINT');
+      await new Promise((r) => setTimeout(r, 20));
+      child.child.kill('SIGINT');
+      const { code } = await child.exited;
+      expect(code).toBe(130);
+      expect(child.stderr().match(/stopping safely…/g)?.length).toBe(2);
+      const events = child.stdout().trim().split('\n').map((l) => JSON.parse(l) as { event: string; status?: string; safe?: boolean });
+      expect(events.at(-1)).toMatchObject({ event: 'done', status: 'interrupted', safe: true });
+      const meta = readMetaFile(log);
+      expect(meta.status).toBe('interrupted');
+      const rows = loggedRows(log);
+      expect(rows.length).toBe(meta.readings);
+      expect(rows.length).toBeLessThan(planKeys(planFile).length);
+      // Asked of the simulated matrix over its own port (SCPI ROUTe:CLOSe:LIST?, the closed channels).
+      expect(await ask(sim.endpoints.switch, 'generic-switch', 'ROUTe:CLOSe:LIST?')).toBe('(@)');
+      const minimum = (builtinProfile('generic-analyzer') as AnalyzerProfile).limits.levelV.min;
+      expect(Number(await ask(sim.endpoints.analyzer, 'generic-analyzer', 'SOURce:VOLTage:LEVel?'))).toBe(minimum);
+    });
+  });
+});
