@@ -17,25 +17,38 @@ export class MisfitMeter {
   private readonly measuredIm: Float64Array;
   private readonly lnMeasured2: Float64Array;
   private readonly inverseNoise2: number;
+  private readonly floor2: number;
 
+  /**
+   * `floorOhms`: the fixture's absolute floor (contact and lead resistance, pickup). Magnitudes are compared
+   * as sqrt(|Z|^2 + floor^2), and the phase error is weighted by |Z| / (|Z| + floor): a reading the size of
+   * the floor says nothing about either, so a node the fault has cut off (predicted ~0, read as the contact
+   * resistance) agrees with its prediction instead of dominating the misfit.
+   */
   constructor(
     scan: PreparedScan,
     readonly noise: number,
+    readonly floorOhms = 0,
   ) {
     const n = scan.readings.length;
+    this.floor2 = Math.max(floorOhms * floorOhms, FLOOR_SQUARED);
     this.measuredRe = new Float64Array(n);
     this.measuredIm = new Float64Array(n);
     this.lnMeasured2 = new Float64Array(n);
     scan.readings.forEach((r, i) => {
       this.measuredRe[i] = r.measured.re;
       this.measuredIm[i] = r.measured.im;
-      this.lnMeasured2[i] = Math.log(Math.max(r.measured.re ** 2 + r.measured.im ** 2, FLOOR_SQUARED));
+      this.lnMeasured2[i] = Math.log(this.magnitude2(r.measured.re ** 2 + r.measured.im ** 2));
     });
     this.inverseNoise2 = 1 / (noise * noise);
   }
 
   get count(): number {
     return this.measuredRe.length;
+  }
+
+  private magnitude2(z2: number): number {
+    return this.floorOhms > 0 ? z2 + this.floor2 : Math.max(z2, FLOOR_SQUARED);
   }
 
   /** Mean loss per reading of `predicted` (re and im interleaved, one pair per reading). */
@@ -52,8 +65,12 @@ export class MisfitMeter {
     const mRe = this.measuredRe[i];
     const mIm = this.measuredIm[i];
     // measured * conj(predicted): its angle is the phase error, and ln|.|^2 follows from the two norms.
-    const phase = Math.atan2(mIm * re - mRe * im, mRe * re + mIm * im);
-    const lnMagnitude = 0.5 * (this.lnMeasured2[i] - Math.log(Math.max(z2, FLOOR_SQUARED)));
+    let phase = Math.atan2(mIm * re - mRe * im, mRe * re + mIm * im);
+    if (this.floorOhms > 0) {
+      const smaller = Math.sqrt(Math.min(z2, mRe * mRe + mIm * mIm));
+      phase *= smaller / (smaller + this.floorOhms);
+    }
+    const lnMagnitude = 0.5 * (this.lnMeasured2[i] - Math.log(this.magnitude2(z2)));
     return huberOfSquare((lnMagnitude * lnMagnitude + phase * phase) * this.inverseNoise2);
   }
 }

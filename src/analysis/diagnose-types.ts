@@ -108,6 +108,8 @@ export interface Diagnosis {
 export interface DiagnoseOptions {
   /** Relative scatter (standard deviation) of re and im of a single reading; default 1e-3. */
   noise?: number;
+  /** Absolute floor of a reading in ohms (fixture contacts and leads); default 0. See MisfitMeter. */
+  floorOhms?: number;
   /** A single explanation must account for at least this share of the deviation; default 0.9. */
   minShare?: number;
   /**

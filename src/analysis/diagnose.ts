@@ -57,6 +57,7 @@ const TIE_ABSOLUTE = 0.05;
 
 interface Settings {
   noise: number;
+  floorOhms: number;
   minShare: number;
   noiseMisfit: number;
   limit: number;
@@ -72,7 +73,7 @@ export function diagnose(board: Board, readings: readonly Reading[], options: Di
   const notes: string[] = [];
   const { scan, entries } = solvableScan(board, readings, notes);
   const model: ReadingModel = settings.method === 'refactor' ? new RefactorModel(scan, settings.parts, board) : new RankOneModel(scan, settings.parts, entries);
-  const meter = new MisfitMeter(scan, settings.noise);
+  const meter = new MisfitMeter(scan, settings.noise, settings.floorOhms);
   const nominal = new Float64Array(2 * scan.readings.length);
   model.nominal(nominal);
   const nominalMisfit = meter.of(nominal);
@@ -244,8 +245,11 @@ function resolveOptions(board: Board, options: DiagnoseOptions): Settings {
       return part;
     });
   }
+  const floorOhms = options.floorOhms ?? 0;
+  if (!(floorOhms >= 0) || !Number.isFinite(floorOhms)) throw new DiagnoseError(`option floorOhms must be zero or a positive resistance in ohms (e.g. 0.5), got ${String(floorOhms)}`);
   return {
     noise,
+    floorOhms,
     minShare,
     noiseMisfit,
     limit,

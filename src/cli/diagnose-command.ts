@@ -13,7 +13,11 @@ interface DiagnoseOptions {
   limit: string;
   noise?: string;
   parts?: string;
+  floor: string;
 }
+
+/** The fixture's absolute floor assumed by default: the planner's measurement floor (contacts and leads). */
+export const DIAGNOSE_FLOOR_OHMS = 0.5;
 
 export function diagnoseCommand(): Command {
   return new Command('diagnose')
@@ -21,6 +25,7 @@ export function diagnoseCommand(): Command {
     .argument('<log>', 'scan log (CSV) written by topoprobe run, with its .meta.json beside it')
     .option('--limit <n>', 'how many candidates to list', '5')
     .option('--noise <relative>', 'relative scatter of one reading to assume (default 1e-3); raise it for a noisy fixture')
+    .option('--floor <ohms>', 'absolute floor of a reading (fixture contacts and leads): readings this small say little', String(DIAGNOSE_FLOOR_OHMS))
     .option('--parts <refs>', 'only consider these parts, comma separated')
     .option('--json', 'print the diagnosis as JSON')
     .addHelpText(
@@ -49,8 +54,10 @@ export function runDiagnose(file: string, options: Partial<DiagnoseOptions>): Di
     if (!(noise > 0 && noise < 1)) throw new UsageError(`--noise ${options.noise}: expected a relative scatter between 0 and 1, e.g. 3e-3`);
   }
   const limit = parseCount(options.limit ?? '5', '--limit', 1000);
+  const floorOhms = Number(options.floor ?? DIAGNOSE_FLOOR_OHMS);
+  if (!(floorOhms >= 0) || !Number.isFinite(floorOhms)) throw new UsageError(`--floor ${options.floor}: expected a resistance in ohms, e.g. 0.5`);
   const parts = options.parts?.split(',').map((s) => s.trim()).filter(Boolean);
-  return diagnose(scan.board, scan.readings, { limit, ...(noise !== undefined ? { noise } : {}), ...(parts ? { parts } : {}) });
+  return diagnose(scan.board, scan.readings, { limit, floorOhms, ...(noise !== undefined ? { noise } : {}), ...(parts ? { parts } : {}) });
 }
 
 export function diagnosisText(d: Diagnosis): string {

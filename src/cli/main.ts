@@ -16,8 +16,9 @@ import { VERSION } from '../version.js';
 export function buildProgram(): Command {
   const program = new Command('topoprobe')
     .description(
-      'Predict, plan and probe circuit-Laplacian lattice boards: what every node should read and where ' +
-        'the boundary modes are (scan plans, instrument runs and diagnosis come in later verbs).',
+      'Check circuit-Laplacian lattice boards: predict what every node should read, plan a probing sequence ' +
+        'from the mode profile, run it on a switch matrix and impedance analyzer (or the simulated bench), ' +
+        'and find the faulty part.',
     )
     .version(VERSION, '-V, --version')
     .showHelpAfterError('(run with --help for usage)')
@@ -48,6 +49,14 @@ export async function main(argv: string[]): Promise<number> {
     }
     return reportError(err);
   }
+}
+
+// A reader that stops early (`topoprobe predict ... | head`) closes the pipe: that is not an error.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on('error', (err: NodeJS.ErrnoException) => {
+    if (err.code === 'EPIPE') process.exit(process.exitCode ?? EXIT.ok);
+    throw err;
+  });
 }
 
 process.exitCode = await main(process.argv.slice(2));

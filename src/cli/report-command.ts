@@ -14,6 +14,7 @@ import { renderReport } from '../report/render-report.js';
 import type { ReportBand, ReportInput } from '../report/report-input.js';
 import { VERSION } from '../version.js';
 import { UsageError } from './exit-codes.js';
+import { DIAGNOSE_FLOOR_OHMS } from './diagnose-command.js';
 
 interface ReportOptions {
   output?: string;
@@ -44,7 +45,7 @@ export function runReport(file: string, options: ReportOptions): string {
   const plan = findPlan(scan.meta.plan.file, scan.meta.plan.sha256, options.plan, file);
   const bands: ReportBand[] = [];
   for (const step of plan?.steps ?? []) step.points.forEach((p, i) => bands.push({ step: step.step, point: i + 1, ...p.band }));
-  const diagnosis = diagnose(scan.board, scan.readings);
+  const diagnosis = diagnose(scan.board, scan.readings, { floorOhms: DIAGNOSE_FLOOR_OHMS });
   const fit = options.fit ? fitBoard(scan.board, scan.readings, { capacitanceScale: true, inductanceScale: true, inductorResistance: { form: 'ohms' } }) : undefined;
   const input: ReportInput = {
     board: scan.board,

@@ -120,8 +120,11 @@ describe('topoprobe plan shared/boards/chain-24.yaml', () => {
       if (key !== closed) relaySets++;
       closed = key;
     }
-    const readings = plan.steps.reduce((t, s) => t + s.points.length * (analyzer.timing.measurementMs + s.averages * analyzer.timing.perAverageMs), 0);
-    const expected = (readings + relaySets * matrix.timing.settleAfterRelayMs + frequencyChanges(plan.steps) * analyzer.timing.afterFrequencyChangeMs) / 1000;
+    // Per reading and per frequency change about 1 ms of command turnaround; every contact change is an open
+    // and a close (break before make), each operating the relays and settling: 4 settle times.
+    const turnaroundMs = 1;
+    const readings = plan.steps.reduce((t, s) => t + s.points.length * (analyzer.timing.measurementMs + s.averages * analyzer.timing.perAverageMs + turnaroundMs), 0);
+    const expected = (readings + relaySets * 4 * matrix.timing.settleAfterRelayMs + frequencyChanges(plan.steps) * (analyzer.timing.afterFrequencyChangeMs + turnaroundMs)) / 1000;
     expect(plan.estimate.duration_s).toBeCloseTo(expected, 9);
   });
 
