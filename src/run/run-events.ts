@@ -65,6 +65,8 @@ export interface DeviationFound {
   point: number;
   hi: string;
   lo: string;
+  /** Transfer readings: the sensed node. */
+  sense?: string;
   frequency_hz: number;
   magnitude_ohm: number;
   phase_deg: number;

@@ -136,6 +136,7 @@ function judged(raw: RawReading): Observable<RunEvent> {
     point: point.point,
     hi: step.hi,
     lo: step.lo,
+    ...(step.sense !== undefined ? { sense: step.sense } : {}),
     frequency_hz: point.data.frequency_hz,
     magnitude_ohm: verdict.magnitude_ohm,
     phase_deg: verdict.phase_deg,

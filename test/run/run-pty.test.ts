@@ -99,11 +99,17 @@ describe.skipIf(!run)('run over pseudo-terminals', () => {
         const resume = existsSync(`${log}.meta.json`);
         if (resume && !tornDropped) appendFileSync(log, '7,1,to-ground,n7,g'); // a write cut off half way
         const child = startRun([planFile, ...bench, '--log', log, ...(resume ? ['--resume'] : [])]);
-        // Start-up takes about a second and a half; the scan about four more.
-        const at = 1200 + Math.floor(random() * 3500);
-        const timer = round < 5 ? setTimeout(() => child.child.kill('SIGKILL'), at) : undefined;
+        // Kill at a random moment of the scan itself, chosen by how far the log has got (a wall-clock
+        // moment would depend on how busy the machine is): somewhere in the next 5 % to 60 % of the readings.
+        let timer: ReturnType<typeof setInterval> | undefined;
+        if (round < 5) {
+          const target = loggedRows(log).length + Math.max(1, Math.floor(expected.length * (0.05 + 0.55 * random())));
+          timer = setInterval(() => {
+            if (loggedRows(log).length >= Math.min(target, expected.length - 1)) child.child.kill('SIGKILL');
+          }, 5);
+        }
         const { code, signal } = await child.exited;
-        clearTimeout(timer);
+        clearInterval(timer);
         if (/dropped a torn last line/.test(child.stderr())) tornDropped = true;
         if (signal === 'SIGKILL') {
           kills++;
