@@ -15,9 +15,9 @@ const plan = path.join(out, 'chain-24.plan.json');
 const log = path.join(out, `chain-24-${new Date().toISOString().replace(/[:.]/g, '-')}.csv`);
 const report = path.join(out, 'chain-24-report.html');
 
-function topoprobe(title, args, okCodes = [0]) {
+function topoprobe(title, args, okCodes = [0], stdout = 'inherit') {
   process.stderr.write(`\n=== ${title}\n$ topoprobe ${args.join(' ')}\n`);
-  const r = spawnSync(process.execPath, [path.join(root, 'bin', 'topoprobe.mjs'), ...args], { cwd: root, stdio: 'inherit' });
+  const r = spawnSync(process.execPath, [path.join(root, 'bin', 'topoprobe.mjs'), ...args], { cwd: root, stdio: ['inherit', stdout, 'inherit'] });
   if (!okCodes.includes(r.status ?? -1)) {
     process.stderr.write(`demo stopped: topoprobe ${args[0]} exited with ${r.status}\n`);
     process.exit(r.status ?? 1);
@@ -29,6 +29,6 @@ topoprobe('2. plan: a scan derived from the predicted mode profile, with toleran
 topoprobe(`3. run: the plan on the simulated bench, with the seeded fault ${fault} (exit 1: deviations flagged)`, ['run', plan, '--sim', '--fault', fault, '--timing', 'instant', '--log', log], [0, 1]);
 topoprobe('4. check: the logged scan against the board snapshot in its metadata', ['check', log], [0, 1]);
 topoprobe('5. diagnose: which part explains the deviations', ['diagnose', log]);
-topoprobe('6. report: one self-contained HTML page', ['report', log, '-o', report, '--fit']);
+topoprobe('6. report: one self-contained HTML page', ['report', log, '-o', report, '--fit'], [0], 'ignore');
 process.stderr.write(`\ndemo done; the report is at\n`);
 process.stdout.write(`${report}\n`);

@@ -7,33 +7,8 @@ import { GROUND, type Board } from '../../../src/board/types.js';
 import { BenchOptionError, BenchPhysics, NO_PARASITICS, type BenchPhysicsOptions } from '../../../simulators/bench-physics.js';
 import { makeBoard } from '../../support/make-board.js';
 import { FixtureMap, type FixtureMapData } from '../../../src/instruments/fixture-map.js';
+import { testBench, type TestBench, closeOnly } from '../../support/physics-bench.js';
 
-// A bench over a board with a hand-written map and a mutable set of closed channels.
-interface TestBench {
-  physics: BenchPhysics;
-  closed: Set<number>;
-  read(frequencyHz: number, fn?: 'impedance' | 'transfer', averages?: number): { re: number; im: number } | 'overload';
-  value(frequencyHz: number, fn?: 'impedance' | 'transfer', averages?: number): { re: number; im: number };
-}
-
-function testBench(board: Board, map: FixtureMap | FixtureMapData, options: BenchPhysicsOptions): TestBench {
-  const fixture = map instanceof FixtureMap ? map : new FixtureMap(map, 'test map');
-  const closed = new Set<number>();
-  const physics = new BenchPhysics(board, fixture, () => closed, options);
-  const read = (frequencyHz: number, fn: 'impedance' | 'transfer' = 'impedance', averages = 1) =>
-    physics.measure({ frequencyHz, level: 0.1, function: fn, averages });
-  const value = (frequencyHz: number, fn: 'impedance' | 'transfer' = 'impedance', averages = 1) => {
-    const r = read(frequencyHz, fn, averages);
-    if (r === 'overload') throw new Error(`overload at ${frequencyHz} Hz with channels ${[...closed].join(',')}`);
-    return r;
-  };
-  return { physics, closed, read, value };
-}
-
-function closeOnly(bench: TestBench, ...channels: number[]): void {
-  bench.closed.clear();
-  for (const c of channels) bench.closed.add(c);
-}
 
 const resistor = makeBoard('r', [['R', 'x', GROUND, 1000]]);
 const map = { nodes: { x: { hi: 1 } }, gnd: { lo: 2 } };
