@@ -111,7 +111,7 @@ describe('predict bad input: one line, exit 2, no stack trace', () => {
 
 describe('predict --bands', () => {
   it('the chain board: one gap, edges from the dimerized-chain dispersion, holding the edge mode', () => {
-    // Source: Asboth, Oroszlany, Palyi, Lecture Notes in Physics 919 (2016), ch. 1: the hopping bands are
+    // Source: W. P. Su, J. R. Schrieffer, A. J. Heeger, PRL 42, 1698 (1979) (from memory): the hopping bands are
     // +-|v + w e^{i theta}|, extremes |w - v| and v + w. With C_node = v + w and 22 uH (common practice for the
     // circuit form): f = 1 / (2 pi sqrt(L (v + w -+ t))).
     const r = runCli(['predict', CHAIN, '--bands', '32', '--modes', '1', '--near', '160k', '--json']);

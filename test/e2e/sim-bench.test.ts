@@ -104,7 +104,7 @@ for (const transport of ['tcp', 'pty'] as const) {
     });
 
     it('a transfer reading maps the edge mode with its sign', async () => {
-      // Drive n1, sense n3: the edge mode has ratio -v/w = -10/33 per cell (Asboth et al., LNP 919, ch. 1),
+      // Drive n1, sense n3: the edge mode has ratio -v/w = -10/33 per cell (Su, Schrieffer, Heeger, PRL 42, 1698 (1979), from memory),
       // so the voltage at n3 is about -0.3 of n1's, in antiphase.
       const { analyzer, matrix, map } = bench;
       await analyzer.setFrequency(f0);

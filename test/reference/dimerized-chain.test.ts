@@ -1,6 +1,5 @@
 // The dimerized (SSH) chain built from capacitors, with inductors to ground.
-// Sources: J. K. Asboth, L. Oroszlany, A. Palyi, "A Short Course on Topological Insulators", Lecture Notes in
-// Physics 919 (2016), ch. 1; W. P. Su, J. R. Schrieffer, A. J. Heeger, PRL 42, 1698 (1979): an open chain
+// Source: W. P. Su, J. R. Schrieffer, A. J. Heeger, PRL 42, 1698 (1979) (from memory): an open chain
 // starting on the intracell bond v has a zero-energy edge state on sublattice A with amplitude ratio -v/w
 // from cell to cell and zero weight on B, present for v < w and absent for v > w.
 // Common practice for the circuit form: at the frequency where each node's own admittance cancels,

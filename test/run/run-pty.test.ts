@@ -61,7 +61,7 @@ describe.skipIf(!run)('run over pseudo-terminals', () => {
       const flagged = rows.filter((x) => x.flag !== 'ok');
       // n1 carries the left edge mode, which the missing coupling to n2 destroys.
       expect(flagged.some((x) => x.hi === 'n1')).toBe(true);
-      // Eleven cells away the edge mode has decayed by (10/33)^11 (Asboth et al., LNP 919, ch. 1): nothing there moves.
+      // Eleven cells away the edge mode has decayed by (10/33)^11 (Su, Schrieffer, Heeger, PRL 42, 1698 (1979), from memory): nothing there moves.
       const far = rows.filter((x) => [x.hi, x.lo, x.sense || 'gnd'].every((n) => nodeNumber(n) >= 13));
       expect(far.length).toBeGreaterThan(100);
       expect(far.filter((x) => x.flag !== 'ok')).toEqual([]);

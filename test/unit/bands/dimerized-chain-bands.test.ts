@@ -1,7 +1,7 @@
 // Bloch bands of the dimerized capacitor chain against its closed-form dispersion.
 // Source (common practice): the dimerized (SSH) chain with intracell hopping v and intercell w has
-// h(k) eigenvalues t = ±|v + w e^{ik}| (J. K. Asboth, L. Oroszlany, A. Palyi, "A Short Course on Topological
-// Insulators", Lecture Notes in Physics 919 (2016), ch. 1). In the circuit every site carries v + w of
+// h(k) eigenvalues t = ±|v + w e^{ik}| (W. P. Su, J. R. Schrieffer, A. J. Heeger, PRL 42, 1698 (1979), from
+// memory). In the circuit every site carries v + w of
 // capacitance in the bulk, so C(k) = (v + w) I - h(k), K = I / L and w^2 = 1 / (L (v + w - t)).
 import { describe, expect, it } from 'vitest';
 import { bandGaps, bandsAlongPath, bandsAt, blochMatrices, defaultBlochPath } from '../../../src/predict/bloch-bands.js';
