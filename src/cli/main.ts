@@ -1,55 +1,6 @@
-// Entry point of the `topoprobe` command: one verb per module, every error through one reporter.
-import { Command, CommanderError } from 'commander';
-import { predictCommand } from './predict-command.js';
-import { planCommand } from './plan-command.js';
-import { simCommand } from './sim-command.js';
-import { portsCommand } from './ports-command.js';
-import { runCommand } from './run-command.js';
-import { checkCommand } from './check-command.js';
-import { diagnoseCommand } from './diagnose-command.js';
-import { fitCommand } from './fit-command.js';
-import { reportCommand } from './report-command.js';
-import { reportError } from './report-error.js';
+// Entry point of the `topoprobe` command (see program.ts for the verbs).
+import { main } from './program.js';
 import { EXIT } from './exit-codes.js';
-import { VERSION } from '../version.js';
-
-export function buildProgram(): Command {
-  const program = new Command('topoprobe')
-    .description(
-      'Check circuit-Laplacian lattice boards: predict what every node should read, plan a probing sequence ' +
-        'from the mode profile, run it on a switch matrix and impedance analyzer (or the simulated bench), ' +
-        'and find the faulty part.',
-    )
-    .version(VERSION, '-V, --version')
-    .showHelpAfterError('(run with --help for usage)')
-    .addCommand(predictCommand())
-    .addCommand(planCommand())
-    .addCommand(simCommand())
-    .addCommand(portsCommand())
-    .addCommand(runCommand())
-    .addCommand(checkCommand())
-    .addCommand(diagnoseCommand())
-    .addCommand(fitCommand())
-    .addCommand(reportCommand());
-  program.exitOverride();
-  for (const cmd of program.commands) cmd.exitOverride().showHelpAfterError(`(run "topoprobe ${cmd.name()} --help" for usage)`);
-  return program;
-}
-
-export async function main(argv: string[]): Promise<number> {
-  const program = buildProgram();
-  try {
-    await program.parseAsync(argv, { from: 'user' });
-    return typeof process.exitCode === 'number' ? process.exitCode : EXIT.ok;
-  } catch (err) {
-    if (err instanceof CommanderError) {
-      // commander has already printed its one-line message (or the help/version text).
-      if (err.code === 'commander.helpDisplayed' || err.code === 'commander.version') return EXIT.ok;
-      return err.exitCode === 0 ? EXIT.ok : EXIT.badInput;
-    }
-    return reportError(err);
-  }
-}
 
 // A reader that stops early (`topoprobe predict ... | head`) closes the pipe: that is not an error.
 for (const stream of [process.stdout, process.stderr]) {
