@@ -7,5 +7,8 @@ export default defineConfig({
     testTimeout: 60_000,
     hookTimeout: 60_000,
     pool: 'forks',
+    // Suites that run cases side by side (the fault-injection suite) start a runner process per case: two
+    // at a time keep a two-core machine from starving the instruments' answer timeouts.
+    maxConcurrency: 2,
   },
 });

@@ -94,6 +94,10 @@ export class SimulatedAnalyzer implements SimulatedDevice {
     this.scpi.reset();
   }
 
+  reboot(): void {
+    this.scpi.reboot();
+  }
+
   injectError(code: number, detail?: string): void {
     this.scpi.injectError(code, detail);
   }

@@ -1,15 +1,14 @@
 // Seeded Gaussian noise for the simulated analyzer: the same seed gives the same readings, run after
-// run. Uniform numbers come from mathjs's seeded generator; the Box-Muller transform (common practice)
+// run. Uniform numbers come from a seeded generator (the one mathjs uses); the Box-Muller transform (common practice)
 // turns pairs of them into independent standard normal numbers.
-import { create, randomDependencies } from 'mathjs';
+import { seededUniform } from '../src/numeric/seeded-uniform.js';
 
 export class GaussianNoise {
   private readonly uniform: () => number;
   private spare: number | undefined;
 
   constructor(seed: number) {
-    const math = create({ randomDependencies }, { randomSeed: `topoprobe-bench-${seed}` });
-    this.uniform = () => math.random() as number;
+    this.uniform = seededUniform(`topoprobe-bench-${seed}`);
   }
 
   /** One draw from the standard normal distribution (mean 0, standard deviation 1). */

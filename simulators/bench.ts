@@ -21,6 +21,10 @@ export interface BenchSetup {
   timing?: BenchTiming;
   physics?: BenchPhysicsOptions;
   stuck?: ReadonlyMap<number, StuckState>;
+  /** The matrix reads back its contacts: its queries report what the relays did (a stuck relay shows). */
+  senseContacts?: boolean;
+  /** Relays closed before any client speaks (left so by an earlier session). */
+  closedAtStart?: readonly number[];
 }
 
 /** Realistic timing, in ms: a reed relay's operate and bounce time, and an analyzer's reading time. */
@@ -44,6 +48,8 @@ export class SimulatedBench {
       routes: (channel) => fixture.terminal(channel),
       operateTimeMs: realistic ? REALISTIC.relayOperateMs : 0,
       stuck: setup.stuck,
+      senseContacts: setup.senseContacts,
+      closedAtStart: setup.closedAtStart,
     });
     const seed = setup.seed ?? 1;
     const physicsOptions: BenchPhysicsOptions = {

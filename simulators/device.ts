@@ -12,6 +12,8 @@ export interface SimulatedDevice {
   receive(message: string): Promise<string | undefined>;
   /** Device clear / power-on reset of the simulated state (as on a reboot). */
   reset(): void;
+  /** A power cycle that comes back with a changed identity (other firmware), everything reset. */
+  reboot?(): void;
   /** Queues an error as if a command had failed (misbehaviour tests: spurious error-queue entries). */
   injectError?(code: number, detail?: string): void;
   /**

@@ -3,9 +3,9 @@
 // message and carries the decision out; `withMisbehaviour` does the same for in-process use.
 //
 // Late answers, dropped answers and garbage only touch messages that contain a query (nothing else is
-// answered). Spurious errors and the disconnect count every message.
+// answered). Spurious errors, the disconnect and the reboot count every message.
 
-import { create, randomDependencies } from 'mathjs';
+import { seededUniform } from '../src/numeric/seeded-uniform.js';
 import { z } from 'zod';
 import type { SimulatedDevice } from './device.js';
 import { containsQuery, lexMessage } from './scpi/lexer.js';
@@ -25,6 +25,8 @@ const optionsSchema = z
     garbage: z.object({ rate, mode: z.enum(['replace', 'prefix']), bytes: z.number().int().min(1).max(4096).optional() }).strict().optional(),
     /** The link is dropped after this many messages (counted again from the next connection). */
     disconnectAfter: z.number().int().min(1).optional(),
+    /** The instrument reboots after this many messages: its identity changes, everything resets, the link drops. */
+    rebootAfter: z.number().int().min(1).optional(),
     /** Every `every`-th message queues an error (default -200 Execution error) before it executes. */
     spuriousError: z
       .object({ every: z.number().int().min(1), code: z.number().int().optional(), detail: z.string().optional() })
@@ -46,6 +48,8 @@ export interface LinkDecision {
   corrupt?: { mode: 'replace' | 'prefix'; junk: Uint8Array };
   /** Drop the connection once this message is handled (its answer, if any, written first). */
   disconnectAfter: boolean;
+  /** Reboot the device once this message is handled (new identity, reset), then drop the connection. */
+  reboot: boolean;
   /** Queue this on the device (`injectError`) before the message executes. */
   injectError?: { code: number; detail: string };
 }
@@ -63,6 +67,7 @@ export class Misbehaviour {
   readonly options: MisbehaviourOptions;
   private readonly random: () => number;
   private index = 0;
+  private rebooted = false;
 
   constructor(options: MisbehaviourOptions) {
     const parsed = optionsSchema.safeParse(options);
@@ -72,9 +77,8 @@ export class Misbehaviour {
       throw new MisbehaviourOptionsError(`${where}: ${issue.message}`);
     }
     this.options = parsed.data;
-    // mathjs' seeded generator: reproducible from the seed alone.
-    const math = create({ randomDependencies }, { randomSeed: String(this.options.seed) });
-    this.random = () => math.random();
+    // A seeded generator: reproducible from the seed alone.
+    this.random = seededUniform(String(this.options.seed));
   }
 
   /** The next connection starts: the per-connection count (spare messages, disconnect) begins again. */
@@ -91,7 +95,7 @@ export class Misbehaviour {
     const draws = { late: this.random(), drop: this.random(), garbage: this.random(), junk: Array.from({ length: junkLength }, () => this.random()) };
     const spared = index <= (o.spare ?? 0);
     const answered = containsQuery(lexMessage(message));
-    const decision: LinkDecision = { index, delayMs: 0, drop: false, disconnectAfter: false };
+    const decision: LinkDecision = { index, delayMs: 0, drop: false, disconnectAfter: false, reboot: false };
     if (!spared && answered) {
       if (o.late && draws.late < o.late.rate) decision.delayMs = o.late.delayMs;
       if (o.drop && draws.drop < o.drop.rate) decision.drop = true;
@@ -104,6 +108,12 @@ export class Misbehaviour {
     }
     if (o.disconnectAfter !== undefined && index >= o.disconnectAfter) {
       decision.disconnectAfter = true;
+      this.index = 0;
+    }
+    // Once only: an instrument that rebooted comes back and stays up.
+    if (o.rebootAfter !== undefined && !this.rebooted && index >= o.rebootAfter) {
+      decision.reboot = decision.disconnectAfter = true;
+      this.rebooted = true;
       this.index = 0;
     }
     return decision;
@@ -139,6 +149,7 @@ export function withMisbehaviour(device: SimulatedDevice, misbehaviour: Misbehav
       events.onDecision?.(decision, message);
       if (decision.injectError) device.injectError?.(decision.injectError.code, decision.injectError.detail);
       const answer = await device.receive(message);
+      if (decision.reboot) (device.reboot ?? device.reset).call(device);
       if (decision.disconnectAfter) events.onDisconnect?.(decision);
       if (answer === undefined || decision.drop) return undefined;
       await delay(decision.delayMs);
@@ -146,6 +157,9 @@ export function withMisbehaviour(device: SimulatedDevice, misbehaviour: Misbehav
     },
     reset(): void {
       device.reset();
+    },
+    reboot(): void {
+      (device.reboot ?? device.reset).call(device);
     },
     injectError(code: number, detail?: string): void {
       device.injectError?.(code, detail);

@@ -3,7 +3,8 @@
 // afterwards (operations per relay, and every moment two board nodes were tied to one bus).
 //
 // Commanded state and contact state differ only for a stuck relay. Like a real mainframe, which cannot sense
-// its contacts, the queries report the commanded state; `closedChannels()` reports the contacts.
+// its contacts, the queries report the commanded state; `closedChannels()` reports the contacts. With
+// `senseContacts` (a matrix with relay readback) the queries report the contacts, so a stuck relay shows.
 
 import type { SimulatedDevice } from './device.js';
 import type { CommandSpec } from './scpi/command-tree.js';
@@ -54,6 +55,13 @@ export interface SwitchMatrixOptions {
   routes?: ChannelRoutes;
   /** Relays that stay open or closed whatever is commanded. */
   stuck?: ReadonlyMap<number, StuckState>;
+  /** A matrix that senses its contacts (relay readback): the queries report the contacts, not the commands. */
+  senseContacts?: boolean;
+  /**
+   * Relays already closed when the matrix starts, as a crashed session may leave a mainframe that was not
+   * power-cycled. Not counted as operations; a conflict they make is recorded as "left closed at start".
+   */
+  closedAtStart?: readonly number[];
   errorQueueSize?: number;
 }
 
@@ -74,6 +82,7 @@ export class SimulatedSwitchMatrix implements SimulatedDevice {
   private readonly routeOf?: (channel: number) => ChannelRoute | undefined;
   private readonly contactResistanceByChannel: ReadonlyMap<number, number>;
   private operationCount = 0;
+  private readonly senseContacts: boolean;
 
   constructor(options: SwitchMatrixOptions = {}) {
     this.contactResistanceOhm = options.contactResistanceOhm ?? 0.15;
@@ -84,7 +93,13 @@ export class SimulatedSwitchMatrix implements SimulatedDevice {
     const routes = options.routes;
     if (routes !== undefined) this.routeOf = typeof routes === 'function' ? routes : (channel) => routes.get(channel);
     for (const [channel, state] of options.stuck ?? []) this.stuck.set(channel, state);
+    this.senseContacts = options.senseContacts ?? false;
+    for (const channel of options.closedAtStart ?? []) {
+      if (!Number.isInteger(channel) || channel < CHANNEL_MIN || channel > CHANNEL_MAX) throw new RangeError(`switch matrix: closedAtStart channel ${channel} is outside ${CHANNEL_MIN}..${CHANNEL_MAX}`);
+      this.commanded.add(channel);
+    }
     this.contacts = this.contactState();
+    if (this.contacts.size > 0) this.recordConflicts('left closed at start');
     this.scpi = new ScpiDevice(
       {
         identity: `Topoprobe Lab,SIM-SW256,${options.serial ?? 'SW0001'},${VERSION}`,
@@ -107,6 +122,10 @@ export class SimulatedSwitchMatrix implements SimulatedDevice {
   /** Power-on: every relay drops open. Operation counts and the conflict record survive, as on the bench. */
   reset(): void {
     this.scpi.reset();
+  }
+
+  reboot(): void {
+    this.scpi.reboot();
   }
 
   injectError(code: number, detail?: string): void {
@@ -159,7 +178,8 @@ export class SimulatedSwitchMatrix implements SimulatedDevice {
 
   private commands(): CommandSpec[] {
     const list: ChannelsSpec[] = [{ kind: 'channels', name: 'the channel list', min: CHANNEL_MIN, max: CHANNEL_MAX }];
-    const states = (channels: readonly number[], closed: boolean) => channels.map((c) => (this.commanded.has(c) === closed ? '1' : '0')).join(',');
+    const reported = () => (this.senseContacts ? this.contacts : this.commanded);
+    const states = (channels: readonly number[], closed: boolean) => channels.map((c) => (reported().has(c) === closed ? '1' : '0')).join(',');
     return [
       {
         header: 'ROUTe:CLOSe',
@@ -172,7 +192,7 @@ export class SimulatedSwitchMatrix implements SimulatedDevice {
         query: { params: list, run: (c) => states(c.channels(0), false) },
       },
       { header: 'ROUTe:OPEN:ALL', set: { run: (c) => this.operate(c.header, [...this.commanded].sort((a, b) => a - b), false) } },
-      { header: 'ROUTe:CLOSe:LIST', query: { run: () => channelList([...this.commanded].sort((a, b) => a - b)) } },
+      { header: 'ROUTe:CLOSe:LIST', query: { run: () => channelList([...reported()].sort((a, b) => a - b)) } },
       { header: 'DIAGnostic:RELay:CYCLes', query: { params: list, run: (c) => c.channels(0).map((ch) => nr1(this.cycles(ch))).join(',') } },
       { header: 'DIAGnostic:BUS:CONFlicts', query: { run: () => nr1(this.recorded.length) } },
       { header: 'DIAGnostic:BUS:CONFlicts:CLEar', set: { run: () => this.clearConflicts() } },

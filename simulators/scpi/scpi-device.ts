@@ -51,7 +51,8 @@ interface InFlight {
 }
 
 export class ScpiDevice implements SimulatedDevice, OperationTracker {
-  readonly identity: string;
+  private currentIdentity: string;
+  private boots = 0;
   private readonly tree: TreeNode;
   private readonly common: TreeNode;
   private readonly errors: ErrorQueue;
@@ -68,7 +69,7 @@ export class ScpiDevice implements SimulatedDevice, OperationTracker {
     private readonly spec: InstrumentSpec,
     options: ScpiDeviceOptions = {},
   ) {
-    this.identity = spec.identity;
+    this.currentIdentity = spec.identity;
     this.errors = new ErrorQueue(options.errorQueueSize ?? 16);
     this.tree = buildTree([...this.systemCommands(), ...spec.commands]);
     this.common = buildTree(this.commonCommands());
@@ -98,6 +99,22 @@ export class ScpiDevice implements SimulatedDevice, OperationTracker {
       this.internalFailure(error);
       return Promise.resolve(undefined);
     }
+  }
+
+  get identity(): string {
+    return this.currentIdentity;
+  }
+
+  /**
+   * A power cycle that comes back with other firmware (reliability tests: an instrument that rebooted and
+   * updated itself mid-scan). Everything resets as at power-on; *IDN? reports the new firmware field.
+   */
+  reboot(): void {
+    this.boots++;
+    const fields = this.spec.identity.split(',');
+    fields[3] = `${fields[3]}-boot${this.boots}`;
+    this.currentIdentity = fields.join(',');
+    this.reset();
   }
 
   reset(): void {

@@ -40,6 +40,7 @@ export function serveDevice(device: SimulatedDevice, link: ByteLink, options: Se
       options.onTraffic?.('out', answer);
       link.write(Buffer.concat([answerBytes(answer, decision?.corrupt), Buffer.from(terminator, 'latin1')]));
     }
+    if (decision?.reboot) (device.reboot ?? device.reset).call(device);
     if (decision?.disconnectAfter && !dropped) {
       dropped = true;
       link.drop();

@@ -4,6 +4,7 @@
 // same anywhere on the board. In units of the reading's noise, a Huber loss (quadratic up to a knee,
 // linear beyond; P. J. Huber, Ann. Math. Stat. 35, 73 (1964)) keeps a few wild readings from deciding
 // the ranking alone, while noise-sized errors count as in least squares.
+import type { CommonLeads, LeadSet } from './diagnose-leads.js';
 import type { PreparedScan } from './diagnose-scan.js';
 
 /** Errors beyond this many noise widths count linearly. */
@@ -16,8 +17,13 @@ export class MisfitMeter {
   private readonly measuredRe: Float64Array;
   private readonly measuredIm: Float64Array;
   private readonly lnMeasured2: Float64Array;
+  /** ω of each reading, and whether it is a transfer reading (it sees the transfer set of the leads). */
+  private readonly omega: Float64Array;
+  private readonly isTransfer: Uint8Array;
   private readonly inverseNoise2: number;
   private readonly floor2: number;
+  /** The common fixture every two-terminal prediction is seen through (diagnose-leads.ts); none by default. */
+  private leads: CommonLeads | undefined;
 
   /**
    * `floorOhms`: the fixture's absolute floor (contact and lead resistance, pickup). Magnitudes are compared
@@ -35,12 +41,28 @@ export class MisfitMeter {
     this.measuredRe = new Float64Array(n);
     this.measuredIm = new Float64Array(n);
     this.lnMeasured2 = new Float64Array(n);
+    this.omega = new Float64Array(n);
+    this.isTransfer = new Uint8Array(n);
     scan.readings.forEach((r, i) => {
+      this.omega[i] = scan.groups[r.group].omega;
+      this.isTransfer[i] = r.source.kind === 'transfer' ? 1 : 0;
       this.measuredRe[i] = r.measured.re;
       this.measuredIm[i] = r.measured.im;
       this.lnMeasured2[i] = Math.log(this.magnitude2(r.measured.re ** 2 + r.measured.im ** 2));
     });
     this.inverseNoise2 = 1 / (noise * noise);
+  }
+
+  /** The same meter, with every prediction seen through `leads`. */
+  withLeads(leads: CommonLeads): MisfitMeter {
+    const copy = Object.create(MisfitMeter.prototype) as MisfitMeter;
+    Object.assign(copy, this);
+    copy.leads = leads;
+    return copy;
+  }
+
+  get commonLeads(): CommonLeads | undefined {
+    return this.leads;
   }
 
   get count(): number {
@@ -60,6 +82,7 @@ export class MisfitMeter {
 
   /** Loss of one reading against a predicted value. */
   lossAt(i: number, re: number, im: number): number {
+    if (this.leads) [re, im] = throughLeads(this.isTransfer[i] ? this.leads.transfer : this.leads.twoTerminal, this.omega[i], re, im);
     const z2 = re * re + im * im;
     if (!Number.isFinite(z2)) return huberOfSquare(1e12);
     const mRe = this.measuredRe[i];
@@ -73,6 +96,18 @@ export class MisfitMeter {
     const lnMagnitude = 0.5 * (this.lnMeasured2[i] - Math.log(this.magnitude2(z2)));
     return huberOfSquare((lnMagnitude * lnMagnitude + phase * phase) * this.inverseNoise2);
   }
+}
+
+/** Z_s + Z / (1 + Z·Y_o) with Z_s = R + jωL and Y_o = jωC (see diagnose-leads.ts). */
+function throughLeads(leads: LeadSet, omega: number, re: number, im: number): [number, number] {
+  const b = omega * leads.farads;
+  // 1 + Z·jωC = (1 − b·im) + j(b·re)
+  const dRe = 1 - b * im;
+  const dIm = b * re;
+  const d2 = dRe * dRe + dIm * dIm;
+  const qRe = (re * dRe + im * dIm) / d2;
+  const qIm = (im * dRe - re * dIm) / d2;
+  return [qRe + leads.ohms, qIm + omega * leads.henries];
 }
 
 /** Huber loss of t, given t² (the square root is only needed beyond the knee). */

@@ -1,6 +1,7 @@
 // The shapes a diagnosis hands to its readers (the diagnose verb, reports): ranked explanations of the
 // deviations in a set of readings, each with the share of the deviation it accounts for.
 import type { PartKind } from '../board/types.js';
+import type { CommonLeads } from './diagnose-leads.js';
 import type { ESeriesMatch } from './e-series.js';
 
 /** What happened to a part, as the diagnosis fits it. */
@@ -95,8 +96,10 @@ export interface Diagnosis {
   readings: { used: number; skipped: number };
   /** Relative scatter of a single reading assumed for the misfit. */
   noise: number;
-  /** Mean robust misfit per reading of the nominal board. */
+  /** Mean robust misfit per reading of the nominal board (seen through the common leads, if fitted). */
   nominalMisfit: number;
+  /** The common fixture (series R and L, stray C) fitted to all two-terminal readings; see diagnose-leads.ts. */
+  leads?: CommonLeads;
   /** The leading explanations, best first (parts and fixture paths ranked together). */
   candidates: Candidate[];
   /** Set when the greedy two-part search ran (no single explanation was enough). */
@@ -123,6 +126,8 @@ export interface DiagnoseOptions {
   parts?: readonly string[];
   /** Also test the fixture paths of each node; default true. */
   fixture?: boolean;
+  /** Fit the fixture common to all readings (series R + L, stray C to ground) and see predictions through it; default true. */
+  leads?: boolean;
   /** Search a second part when no single explanation is enough; default true. */
   pairs?: boolean;
   /**

@@ -15,6 +15,7 @@ import { SHORT_OHMS } from './diagnose-change.js';
 import { describeFixture, describePart, describeVerdict, fixtureName } from './diagnose-describe.js';
 import { DiagnoseError } from './diagnose-error.js';
 import { fitFixturePaths, type FixtureFit } from './diagnose-fixture.js';
+import { fitCommonLeads, type CommonLeads, type LeadSet } from './diagnose-leads.js';
 import { MisfitMeter } from './diagnose-misfit.js';
 import type { ReadingModel } from './diagnose-model.js';
 import { fitParts, type PartFit } from './diagnose-parts.js';
@@ -29,7 +30,7 @@ import type { Reading } from './readings.js';
 export type * from './diagnose-types.js';
 export { DiagnoseError } from './diagnose-error.js';
 
-const DEFAULTS = { noise: 1e-3, minShare: 0.9, noiseMisfit: 5, limit: 5, fixture: true, pairs: true, method: 'rank-one' } as const;
+const DEFAULTS = { noise: 1e-3, minShare: 0.9, noiseMisfit: 5, limit: 5, fixture: true, leads: true, pairs: true, method: 'rank-one' } as const;
 /**
  * Mean misfit per reading that noise alone leaves when `noise` is right: the squared size of a complex
  * residual with independent normal parts of unit variance has mean 2 (a chi-square with two degrees of
@@ -63,6 +64,7 @@ interface Settings {
   limit: number;
   parts: Part[];
   fixture: boolean;
+  leads: boolean;
   pairs: boolean;
   method: 'rank-one' | 'refactor';
 }
@@ -73,13 +75,29 @@ export function diagnose(board: Board, readings: readonly Reading[], options: Di
   const notes: string[] = [];
   const { scan, entries } = solvableScan(board, readings, notes);
   const model: ReadingModel = settings.method === 'refactor' ? new RefactorModel(scan, settings.parts, board) : new RankOneModel(scan, settings.parts, entries);
-  const meter = new MisfitMeter(scan, settings.noise, settings.floorOhms);
+  const bare = new MisfitMeter(scan, settings.noise, settings.floorOhms);
   const nominal = new Float64Array(2 * scan.readings.length);
   model.nominal(nominal);
+  // The common leads are fitted to the nominal board first (is it as designed, seen through some fixture?),
+  // then again with the leading part's change, and the parts ranked once more through those: a faulty part
+  // moves the readings the first fit had to bend the leads for.
+  let leads = settings.leads ? fitCommonLeads(bare, nominal) : undefined;
+  let meter = leads ? bare.withLeads(leads) : bare;
+  const asDesignedMisfit = meter.of(nominal);
+  let fits = fitParts(model, meter);
+  if (leads && fits.length > 0) {
+    const withLeader = new Float64Array(nominal.length);
+    model.predict(fits[0].part, fits[0].change, withLeader);
+    const refitted = fitCommonLeads(bare, withLeader);
+    const refittedMeter = bare.withLeads(refitted);
+    if (refittedMeter.of(withLeader) < meter.of(withLeader)) {
+      leads = refitted;
+      meter = refittedMeter;
+      fits = fitParts(model, meter);
+    }
+  }
   const nominalMisfit = meter.of(nominal);
   const shareOf = (misfit: number) => shareOfDeviation(misfit, nominalMisfit);
-
-  const fits = fitParts(model, meter);
   const partCandidates = fits.map((fit) => partCandidate(model.parts[fit.part], fit, shareOf(fit.misfit)));
   const fixtureCandidates = settings.fixture ? fitFixturePaths(scan, nominal, meter).map((fit) => fixtureCandidate(fit, shareOf(fit.misfit))) : [];
   const ranked: Candidate[] = [...partCandidates, ...fixtureCandidates].sort((a, b) => a.misfit - b.misfit);
@@ -88,10 +106,15 @@ export function diagnose(board: Board, readings: readonly Reading[], options: Di
 
   let verdict: Verdict;
   let pair: PartPair | undefined;
-  if (nominalMisfit <= settings.noiseMisfit) verdict = 'as-designed';
+  if (asDesignedMisfit <= settings.noiseMisfit) verdict = 'as-designed';
   else if (leader && explains(leader)) verdict = leader.subject === 'part' ? 'single-part' : 'fixture';
   else {
-    pair = settings.pairs ? greedyPair(model, meter, fits, shareOf) : undefined;
+    const found = settings.pairs ? greedyPair(model, meter, fits, shareOf, leads ? bare : undefined) : undefined;
+    if (found) {
+      const { leads: pairLeads, ...rest } = found;
+      pair = rest;
+      if (explains(pair) && pairLeads) leads = pairLeads;
+    }
     verdict = pair && explains(pair) ? 'several-faults' : 'unexplained';
   }
   let message = describeVerdict(verdict, leader, pair);
@@ -102,6 +125,7 @@ export function diagnose(board: Board, readings: readonly Reading[], options: Di
     if (tied.length > 0 && (verdict === 'single-part' || verdict === 'fixture')) message += `; ${tied.map((c) => c.ref).join(', ')} explain it equally well`;
   }
 
+  if (leads && [leads.twoTerminal, leads.transfer].some((l) => l.ohms > 0 || l.henries > 0 || l.farads > 0)) notes.push(describeLeads(leads));
   return {
     board: board.name,
     verdict,
@@ -109,6 +133,7 @@ export function diagnose(board: Board, readings: readonly Reading[], options: Di
     readings: { used: scan.readings.length, skipped: scan.skipped },
     noise: settings.noise,
     nominalMisfit,
+    ...(leads ? { leads } : {}),
     candidates: ranked.slice(0, settings.limit),
     ...(pair ? { pair } : {}),
     notes,
@@ -188,7 +213,14 @@ function fixtureCandidate(fit: FixtureFit, share: number): FixtureCandidate {
  * on what it leaves (from the same factorization, see rank-one.ts). The second part's misfit and share are
  * those of both changes together.
  */
-function greedyPair(model: ReadingModel, meter: MisfitMeter, fits: readonly PartFit[], shareOf: (misfit: number) => number): PartPair | undefined {
+function greedyPair(
+  model: ReadingModel,
+  meter: MisfitMeter,
+  fits: readonly PartFit[],
+  shareOf: (misfit: number) => number,
+  /** When the common leads are fitted: the meter without them, to fit them again to the pair found. */
+  bare?: MisfitMeter,
+): (PartPair & { leads?: CommonLeads }) | undefined {
   let best: { first: PartFit; second: PartFit; after: ReadingModel } | undefined;
   for (const first of fits.slice(0, PAIR_STARTS)) {
     const after = model.after(first.part, first.change);
@@ -196,13 +228,32 @@ function greedyPair(model: ReadingModel, meter: MisfitMeter, fits: readonly Part
     if (second && (!best || second.misfit < best.second.misfit)) best = { first, second, after };
   }
   if (!best) return undefined;
-  const share = shareOf(best.second.misfit);
+  let misfit = best.second.misfit;
+  let leads: CommonLeads | undefined;
+  if (bare) {
+    // The leads were fitted with one part changed; two changed parts may ask for other leads.
+    const both = new Float64Array(2 * model.scan.readings.length);
+    best.after.predict(best.second.part, best.second.change, both);
+    const refitted = fitCommonLeads(bare, both);
+    const refittedMisfit = bare.withLeads(refitted).of(both);
+    if (refittedMisfit < misfit) {
+      misfit = refittedMisfit;
+      leads = refitted;
+    }
+  }
+  const share = shareOf(misfit);
   return {
     first: partCandidate(model.parts[best.first.part], best.first, shareOf(best.first.misfit)),
-    second: partCandidate(best.after.parts[best.second.part], best.second, share),
-    misfit: best.second.misfit,
+    second: partCandidate(best.after.parts[best.second.part], { ...best.second, misfit }, share),
+    misfit,
     share,
+    ...(leads ? { leads } : {}),
   };
+}
+
+function describeLeads(leads: CommonLeads): string {
+  const set = (l: LeadSet) => `${formatQuantity(l.ohms, 'ohm', 2)} and ${formatQuantity(l.henries, 'H', 2)} in series, ${formatQuantity(l.farads, 'F', 2)} to ground`;
+  return `fixture common to all readings fitted and kept out of the blame: ${set(leads.twoTerminal)} (two-terminal readings); ${set(leads.transfer)} (transfer readings)`;
 }
 
 /** Candidates that fit as well as the leader; these readings cannot choose between them. */
@@ -255,6 +306,7 @@ function resolveOptions(board: Board, options: DiagnoseOptions): Settings {
     limit,
     parts: [...parts],
     fixture: options.fixture ?? DEFAULTS.fixture,
+    leads: options.leads ?? DEFAULTS.leads,
     pairs: options.pairs ?? DEFAULTS.pairs,
     method,
   };

@@ -19,6 +19,7 @@ import { prepareReadings, type SkippedReading } from './fit-readings.js';
 import { checkFitSpec, type FitSpec } from './fit-spec.js';
 import { measuredSpread, type KindSpread } from './fit-spread.js';
 import type { Reading } from './readings.js';
+import type { CommonLeads } from './diagnose-leads.js';
 import type { UnitName } from '../units/quantity.js';
 
 export { FitError } from './fit-errors.js';
@@ -38,6 +39,8 @@ export interface FitOptions extends LmOptions {
   priorWidth?: number;
   /** Tolerance assumed for the prior of a part that states none. Default 0.2. */
   defaultTolerance?: number;
+  /** The fixture common to all readings (a diagnosis fits it), seen around every model reading; default none. */
+  leads?: CommonLeads;
 }
 
 export interface FitParameterResult {
@@ -106,7 +109,7 @@ export function fitBoard(board: Board, readings: readonly Reading[], spec: FitSp
   const P = parameters.count;
   const given = options.noise;
   let noise: NoiseModel = given ? { relative: given.relative, floor: given.floor ?? 0 } : { relative: DEFAULT_RELATIVE_NOISE, floor: 0 };
-  const model = new FitModel(laplacian, prepared, parameters, noise);
+  const model = new FitModel(laplacian, prepared, parameters, noise, options.leads);
   const rows = model.residualCount;
   if (rows <= P) {
     throw new FitError(

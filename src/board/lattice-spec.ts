@@ -2,7 +2,7 @@
 // lattice vectors, sites, and the unit cell's bonds and parts to ground.
 
 import { joinPath, type ProblemLog } from './errors.js';
-import { axes, type Boundary } from './lattice-cells.js';
+import { axes, cellCount, type Boundary } from './lattice-cells.js';
 import { defaultNameTemplate, isGroundName, templateProblems } from './node-names.js';
 import { readPartValues, type Loss } from './part-values.js';
 import { BondShape, GroundShape, LatticeShape } from './schema.js';
@@ -11,6 +11,9 @@ import { closestName } from './spelling.js';
 import { GROUND, type PartKind } from './types.js';
 
 export type Vector3 = [number, number, number];
+
+/** The most nodes a lattice may expand to: a hundred times the largest boards we benchmark. */
+export const MAX_LATTICE_NODES = 1_000_000;
 
 export interface SiteSpec {
   name: string;
@@ -64,6 +67,12 @@ export function readLatticeSpec(raw: unknown, log: ProblemLog): LatticeSpec | un
   const boundary = repeats ? readBoundary(shape.boundary, dimensions, log) : undefined;
   const vectors = repeats ? readVectors(shape.vectors, dimensions, log) : undefined;
   const sites = shape.sites === undefined ? undefined : readSites(shape.sites, vectors?.[0] ?? [1, 0, 0], log);
+  const nodeCount = repeats && sites ? cellCount(repeats) * sites.length : 0;
+  if (nodeCount > MAX_LATTICE_NODES) {
+    // Checked before expansion: a mistyped repeat count (1000000 for 100) would otherwise exhaust memory.
+    const shown = Number.isSafeInteger(nodeCount) ? String(nodeCount) : nodeCount.toPrecision(3);
+    log.add('lattice.repeats', `${repeats!.join(' x ')} cells of ${sites!.length} ${sites!.length === 1 ? 'site' : 'sites'} make ${shown} nodes, more than the ${MAX_LATTICE_NODES} a board may have`);
+  }
   const nameTemplate = shape.names ?? defaultNameTemplate(Math.max(dimensions, 1));
   if (shape.names !== undefined && repeats) {
     for (const problem of templateProblems(shape.names, dimensions)) log.add('lattice.names', problem);

@@ -14,6 +14,8 @@ export function readNodeName(raw: string | number): { name: string } | { problem
   const name = String(raw).trim();
   if (name === '') return { problem: 'a node name must not be empty' };
   if (/\s/.test(name)) return { problem: `node name ${JSON.stringify(name)} contains white space` };
+  // Plans, fixture maps and mode profiles key plain objects by node name; this one would change the object.
+  if (name === '__proto__') return { problem: 'node name "__proto__" is reserved; choose another name' };
   return { name: isGroundName(name) ? GROUND : name };
 }
 
@@ -40,6 +42,7 @@ export function templateProblems(template: string, dimensions: number): string[]
     }
   }
   if (/\s/.test(template)) problems.push('node names made from it would contain white space');
+  if (template === '__proto__') problems.push('node name "__proto__" is reserved; choose another name');
   return problems;
 }
 

@@ -4,7 +4,7 @@
 
 import { readFileSync, statSync } from 'node:fs';
 import { LineCounter, parseDocument } from 'yaml';
-import { BoardError, ProblemLog } from './errors.js';
+import { BoardError, pathText, ProblemLog } from './errors.js';
 import { jsonErrorOffset } from './json-error-position.js';
 
 export type BoardFormat = 'json' | 'yaml';
@@ -51,7 +51,8 @@ function parseJson(text: string, log: ProblemLog): unknown {
 
 function parseYaml(text: string, log: ProblemLog): unknown {
   const lines = new LineCounter();
-  const doc = parseDocument(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true });
+  // logLevel 'error': the yaml library would print its warnings (a list used as a key) on stderr itself.
+  const doc = parseDocument(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true, logLevel: 'error' });
   const linesReported = new Set<number>();
   for (const error of doc.errors) {
     const { line, col } = lines.linePos(error.pos[0]);
@@ -62,13 +63,43 @@ function parseYaml(text: string, log: ProblemLog): unknown {
     log.add(`line ${line}, column ${col}`, `YAML syntax error: ${yamlMessage(error.message)}`);
   }
   if (doc.errors.length > 0) return undefined;
+  let data: unknown;
   try {
-    return doc.toJS({ maxAliasCount: 1000 });
+    data = doc.toJS({ maxAliasCount: 1000 });
   } catch (error) {
     // An alias to an anchor that does not exist shows up only when the data is built.
     log.add('', `YAML error: ${error instanceof Error ? error.message : String(error)}`);
     return undefined;
   }
+  const odd = firstNonPlain(data, []);
+  if (odd) {
+    log.add(pathText(odd.path), odd.message);
+    return undefined;
+  }
+  return data;
+}
+
+/**
+ * YAML tags such as !!binary, !!set, !!omap or !!timestamp build values no checker downstream expects, and an
+ * alias inside its own anchor (`a: &x [*x]`) builds a cycle; both are refused here, with where they are.
+ */
+function firstNonPlain(value: unknown, path: PropertyKey[], open = new Set<object>(), done = new Set<object>()): { path: PropertyKey[]; message: string } | undefined {
+  if (value === null || typeof value !== 'object' || done.has(value)) return undefined;
+  if (open.has(value)) return { path, message: 'YAML alias to the list or mapping it sits in; the data would never end' };
+  const proto = Object.getPrototypeOf(value);
+  if (!Array.isArray(value) && proto !== Object.prototype && proto !== null) {
+    const what = (value as object).constructor?.name ?? 'special value';
+    return { path, message: `YAML tag gives a ${what}; only text, numbers, true/false, lists and mappings are read here` };
+  }
+  open.add(value);
+  const entries: [PropertyKey, unknown][] = Array.isArray(value) ? value.map((v, i) => [i, v]) : Object.entries(value);
+  for (const [key, inner] of entries) {
+    const found = firstNonPlain(inner, [...path, key], open, done);
+    if (found) return found;
+  }
+  open.delete(value);
+  done.add(value);
+  return undefined;
 }
 
 function yamlMessage(message: string): string {

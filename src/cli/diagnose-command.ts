@@ -64,7 +64,8 @@ export function diagnosisText(d: Diagnosis): string {
   const rows = d.candidates.map((c, i) => [String(i + 1), c.ref, changeText(c), `${(100 * c.share).toFixed(1)} %`]);
   return (
     `diagnosis of board ${d.board} (${d.readings.used} readings, ${d.readings.skipped} invalid skipped): ${d.verdict}\n${d.message}\n\n` +
-    textTable(['#', 'candidate', 'change', 'explains'], rows, [true, false, false, true])
+    textTable(['#', 'candidate', 'change', 'explains'], rows, [true, false, false, true]) +
+    d.notes.map((n) => `note: ${n}\n`).join('')
   );
 }
 

@@ -1,6 +1,11 @@
 // `topoprobe fit <log>`: fit component values, losses and spread to a logged scan; write the fitted board.
 import { Command } from 'commander';
 import { fitBoard } from '../analysis/fit.js';
+import { boardAsDiagnosed } from '../analysis/board-as-diagnosed.js';
+import { diagnose } from '../analysis/diagnose.js';
+import type { CommonLeads } from '../analysis/diagnose-leads.js';
+import { DIAGNOSE_FLOOR_OHMS } from './diagnose-command.js';
+import { fitBasisText } from './fit-basis.js';
 import type { FitSpec } from '../analysis/fit-spec.js';
 import { loadScan } from '../analysis/load-scan.js';
 import { writeBoard } from '../board/write-board.js';
@@ -18,6 +23,7 @@ interface FitOptions {
   output?: string;
   overwrite?: boolean;
   json?: boolean;
+  asDiagnosed?: boolean;
 }
 
 export function fitCommand(): Command {
@@ -31,26 +37,39 @@ export function fitCommand(): Command {
     .option('--all-parts', 'fit every part (each held weakly toward nominal by its tolerance); reports the spread')
     .option('-o, --output <file>', 'write the fitted board as a board file (YAML)')
     .option('--overwrite', 'replace the output file if it exists')
+    .option('--as-diagnosed', 'diagnose the scan first, then fit over the board with the blamed part changed as found, seen through the fitted fixture')
     .option('--json', 'print the fit result as JSON')
     .addHelpText(
       'after',
       `
 Without a parameter flag the global scales and the coil resistance are fitted (--scale C,L --coil-resistance).
-Residuals are in log|Z| and phase; uncertainties come from the Jacobian at the solution.
+Residuals are in log|Z| and phase; uncertainties come from the Jacobian at the solution. On a scan with a
+faulty part, fit with --as-diagnosed (or after the repair): otherwise every parameter bends to imitate the fault.
 
 Examples:
   topoprobe fit scan.csv
   topoprobe fit scan.csv --all-parts -o fitted.yaml
+  topoprobe fit scan.csv --as-diagnosed
   topoprobe fit scan.csv --parts C_intra_3,L_tanka_5 --json`,
     )
     .action((file: string, options: FitOptions) => {
       const scan = loadScan(file);
       const spec = fitSpec(options);
-      const result = fitBoard(scan.board, scan.readings, spec);
+      let board = scan.board;
+      let leads: CommonLeads | undefined;
+      let basis = '';
+      if (options.asDiagnosed) {
+        const diagnosis = diagnose(scan.board, scan.readings, { floorOhms: DIAGNOSE_FLOOR_OHMS });
+        const found = boardAsDiagnosed(scan.board, diagnosis);
+        board = found?.board ?? board;
+        leads = diagnosis.leads;
+        basis = fitBasisText(found, leads !== undefined);
+      }
+      const result = fitBoard(board, scan.readings, spec, { leads });
       if (options.output && result.converged) writeBoard(result.board, options.output, { overwrite: options.overwrite, comment: `fitted by topoprobe fit to ${file}` });
       if (options.json) {
         const { board: _board, ...rest } = result;
-        process.stdout.write(JSON.stringify(rest, null, 2) + '\n');
+        process.stdout.write(JSON.stringify(options.asDiagnosed ? { basis, ...rest } : rest, null, 2) + '\n');
       } else {
         const rows = result.parameters.map((p) => [
           p.label,
@@ -58,7 +77,7 @@ Examples:
           p.unit ? formatQuantity(p.value, p.unit as 'F') : p.value.toPrecision(6),
           Number.isFinite(p.sigma) ? `± ${(100 * p.relativeSigma).toPrecision(2)} %` : 'not identifiable',
         ]);
-        process.stdout.write(`${result.message}\n\n` + textTable(['parameter', 'nominal', 'fitted', 'uncertainty (1 sigma)'], rows, [false, true, true, true]));
+        process.stdout.write(`${basis ? `${basis}\n` : ''}${result.message}\n\n` + textTable(['parameter', 'nominal', 'fitted', 'uncertainty (1 sigma)'], rows, [false, true, true, true]));
         for (const s of result.spread ?? []) {
           process.stdout.write(`spread of ${s.kind} parts: ${(100 * s.partSpread).toPrecision(2)} % over ${s.counted} parts${s.tolerance !== undefined ? ` (stated tolerance ${(100 * s.tolerance).toPrecision(2)} %)` : ''}\n`);
         }

@@ -6,6 +6,8 @@ import path from 'node:path';
 import { Command } from 'commander';
 import { diagnose } from '../analysis/diagnose.js';
 import { fitBoard } from '../analysis/fit.js';
+import { boardAsDiagnosed } from '../analysis/board-as-diagnosed.js';
+import { fitBasisText } from './fit-basis.js';
 import { loadScan } from '../analysis/load-scan.js';
 import { loadPlan } from '../plan/read-plan.js';
 import type { ScanPlan } from '../plan/types.js';
@@ -46,7 +48,12 @@ export function runReport(file: string, options: ReportOptions): string {
   const bands: ReportBand[] = [];
   for (const step of plan?.steps ?? []) step.points.forEach((p, i) => bands.push({ step: step.step, point: i + 1, ...p.band }));
   const diagnosis = diagnose(scan.board, scan.readings, { floorOhms: DIAGNOSE_FLOOR_OHMS });
-  const fit = options.fit ? fitBoard(scan.board, scan.readings, { capacitanceScale: true, inductanceScale: true, inductorResistance: { form: 'ohms' } }) : undefined;
+  // The fit measures the rest of the board: over the board as diagnosed, seen through the fitted fixture.
+  const basis = boardAsDiagnosed(scan.board, diagnosis);
+  const fitted = options.fit
+    ? fitBoard(basis?.board ?? scan.board, scan.readings, { capacitanceScale: true, inductanceScale: true, inductorResistance: { form: 'ohms' } }, { leads: diagnosis.leads })
+    : undefined;
+  const fit = fitted ? { ...fitted, message: `${fitBasisText(basis, diagnosis.leads !== undefined)} ${fitted.message}` } : undefined;
   const input: ReportInput = {
     board: scan.board,
     readings: scan.readings,
@@ -84,7 +91,11 @@ export function runReport(file: string, options: ReportOptions): string {
 function findPlan(recorded: string, sha256: string, given: string | undefined, log: string): ScanPlan | undefined {
   const candidates = given ? [given] : [recorded, path.resolve(path.dirname(log), recorded)];
   for (const file of candidates) {
-    if (!existsSync(file)) continue;
+    if (!existsSync(file)) {
+      // A plan named on the command line that is not there is a mistake, not a reason to leave bands out.
+      if (given) throw new UsageError(`--plan ${given}: no such file`);
+      continue;
+    }
     if (sha256OfFile(file) !== sha256) {
       if (given) throw new UsageError(`--plan ${given}: not the plan this scan ran (its sha256 differs from the log's)`);
       process.stderr.write(`topoprobe: ${file} has changed since the scan; the report leaves out its bands and modes\n`);

@@ -6,7 +6,7 @@ import path from 'node:path';
 import { Command } from 'commander';
 import { lastValueFrom, tap } from 'rxjs';
 import { loadBoard } from '../board/load.js';
-import { profileFrom, type AnalyzerProfile, type InstrumentProfile, type SwitchProfile } from '../instruments/index.js';
+import { profileFrom, ProfileError, type AnalyzerProfile, type InstrumentProfile, type SwitchProfile } from '../instruments/index.js';
 import { boardHash } from '../plan/board-hash.js';
 import { loadPlan } from '../plan/read-plan.js';
 import type { ScanPlan } from '../plan/types.js';
@@ -174,27 +174,33 @@ async function runPlan(planFile: string, options: RunOptions): Promise<number> {
         onOutcome: (o) => (outcome = o),
       }).pipe(
         // The log first: a reading is on disk before it is shown anywhere. A log that cannot be written
-        // stops the run like Ctrl-C would, so the bench is still left safe.
+        // (a full disk) stops the run as failed, after the reading in hand, so the bench is still left safe.
         tap((event) => {
           try {
             log.record(event);
           } catch (error) {
             if (logFailure === undefined) {
               logFailure = error;
-              stop.request(`the log could not be written: ${errorMessage(error)}`);
+              stop.fail(error);
             }
             if (event.event === 'reading') return;
           }
-          shown.show(event);
+          // The closing counts are the log's: a reading the log could not take was never reported either.
+          shown.show(event.event === 'done' ? { ...event, ...log.counts } : event);
         }),
       ),
       { defaultValue: undefined },
     );
     view.close();
+    const safety = outcome?.done.safe ? 'bench left safe (every relay open, excitation at its minimum)' : 'bench NOT confirmed safe (check it by hand)';
     if (logFailure !== undefined) {
-      process.stderr.write(`topoprobe: ${logFile}: writing failed (${errorMessage(logFailure)}); the rows already in it are kept\n`);
-      return EXIT.badInput;
+      process.stderr.write(
+        `topoprobe: ${errorMessage(logFailure)}; ${log.counts.readings} readings are safe in it (every one reported); ${safety}; make room and continue with --resume\n`,
+      );
+      return EXIT.instrument;
     }
+    // The views put the summary on stdout (or, with --json, an event): the reason a run failed is also one line on stderr.
+    if (outcome?.done.status === 'failed') process.stderr.write(`topoprobe: scan failed: ${outcome.done.reason ?? 'unknown failure'}; ${safety}\n`);
     return exitCodeOf(outcome);
   } finally {
     probes?.close();
@@ -221,7 +227,10 @@ function checkFlags(o: RunOptions): boolean {
       if (given) throw new UsageError(`${flag} goes with --sim`);
     }
   }
-  if (o.seed !== undefined && !/^-?\d+$/.test(o.seed)) throw new UsageError(`--seed ${o.seed}: expected a whole number`);
+  // A safe integer only: a larger seed would not be the one recorded in the log's meta (which refuses it).
+  if (o.seed !== undefined && (!/^-?\d+$/.test(o.seed) || !Number.isSafeInteger(Number(o.seed)))) {
+    throw new UsageError(`--seed ${o.seed}: expected a whole number from -${Number.MAX_SAFE_INTEGER} to ${Number.MAX_SAFE_INTEGER}`);
+  }
   if (o.timing !== undefined && o.timing !== 'instant' && o.timing !== 'realistic') throw new UsageError(`--timing ${o.timing}: expected realistic or instant`);
   if (o.resume && o.log === undefined) throw new UsageError('--resume needs --log FILE, the log to continue');
   return simulated;
@@ -246,7 +255,14 @@ function profileOf(nameOrPath: string, kind: 'analyzer' | 'switch', planFile?: s
   // A path written in the plan is relative to the plan's folder; one on the command line to the current one.
   const isPath = /[/\\]|\.(ya?ml|json)$/i.test(nameOrPath);
   const where = isPath && planFile && !path.isAbsolute(nameOrPath) ? path.join(path.dirname(planFile), nameOrPath) : nameOrPath;
-  const profile = profileFrom(where);
+  let profile: InstrumentProfile;
+  try {
+    profile = profileFrom(where);
+  } catch (error) {
+    // A profile the plan names: say which plan and field named it, or the user looks for the wrong file.
+    if (planFile && error instanceof ProfileError) throw new ProfileError(error.problems.map((p) => ({ ...p, file: `${planFile}: instruments.${kind}: ${p.file}` })));
+    throw error;
+  }
   if (profile.kind !== kind) {
     const flag = planFile ? `${planFile}: instruments.${kind}` : `--${kind}-profile`;
     throw new UsageError(`${flag}: ${nameOrPath} is ${profile.kind === 'analyzer' ? 'an analyzer' : 'a switch matrix'} profile, expected ${kind === 'analyzer' ? 'an analyzer' : 'a switch matrix'} profile`);

@@ -1,11 +1,12 @@
 // Parsing of the `topoprobe sim` flags that describe trouble: misbehaving links and stuck relays.
+import { closeSync, openSync, writeSync } from 'node:fs';
 import type { MisbehaviourOptions } from '../../simulators/misbehaviour.js';
 import type { StuckState } from '../../simulators/switch-matrix.js';
 import { UsageError } from './exit-codes.js';
 
 export type MisbehaviourTarget = 'analyzer' | 'switch';
 
-const KINDS = 'late=RATE:MS, drop=RATE, garbage=RATE[:replace|prefix], disconnect=N, errors=EVERY[:CODE], spare=N';
+const KINDS = 'late=RATE:MS, drop=RATE, garbage=RATE[:replace|prefix], disconnect=N, reboot=N, errors=EVERY[:CODE], spare=N';
 
 /** `--misbehave analyzer:late=0.1:3000` (TARGET is analyzer, switch or both); returns options per target. */
 export function parseMisbehaviour(specs: readonly string[], seed: number): Partial<Record<MisbehaviourTarget, MisbehaviourOptions>> {
@@ -43,6 +44,9 @@ export function parseMisbehaviour(specs: readonly string[], seed: number): Parti
       case 'disconnect':
         patch.disconnectAfter = num(0, 'N', true);
         break;
+      case 'reboot':
+        patch.rebootAfter = num(0, 'N', true);
+        break;
       case 'errors':
         patch.spuriousError = { every: num(0, 'EVERY', true), ...(fields[1] !== undefined ? { code: num(1, 'CODE', true) } : {}) };
         break;
@@ -76,4 +80,50 @@ export function parseTerminator(text: string): string {
   const t = { lf: '\n', crlf: '\r\n', cr: '\r' }[text.toLowerCase()];
   if (t === undefined) throw new UsageError(`--terminator ${text}: expected lf, crlf or cr`);
   return t;
+}
+
+/** `--closed 1003,2000`: relays closed before any client speaks. */
+export function parseClosed(text: string): number[] {
+  const fields = text.split(',').map((f) => f.trim());
+  const out: number[] = [];
+  for (const f of fields) {
+    if (!/^\d+$/.test(f) || Number(f) < 1 || Number(f) > 9999) throw new UsageError(`--closed ${text}: "${f}" is not a channel from 1 to 9999; expected CH,CH.., e.g. 1003,2000`);
+    out.push(Number(f));
+  }
+  return out;
+}
+
+/** A recorder per instrument, and the closing of the file. */
+export interface TrafficRecord {
+  recorder(instrument: 'analyzer' | 'switch'): (direction: 'in' | 'out', text: string) => void;
+  close(): void;
+}
+
+/**
+ * `--traffic FILE`: the simulated instruments' own record of what reached them and what they answered,
+ * one line each ("<ISO time> <instrument> in|out <message>"), written at once so a kill loses nothing.
+ */
+export function openTraffic(file: string): TrafficRecord {
+  let fd: number | undefined;
+  try {
+    fd = openSync(file, 'a');
+  } catch (error) {
+    const code = (error as NodeJS.ErrnoException).code;
+    throw new UsageError(`--traffic ${file}: cannot open it (${code === 'ENOENT' ? 'its folder does not exist' : code === 'EACCES' ? 'permission denied' : (error as Error).message})`);
+  }
+  return {
+    recorder: (instrument) => (direction, text) => {
+      if (fd === undefined) return;
+      try {
+        writeSync(fd, `${new Date().toISOString()} ${instrument} ${direction} ${text}\n`);
+      } catch {
+        // A record that cannot be written (disk full) must not stop the bench; it ends here.
+        fd = undefined;
+      }
+    },
+    close: () => {
+      if (fd !== undefined) closeSync(fd);
+      fd = undefined;
+    },
+  };
 }

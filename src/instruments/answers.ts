@@ -22,7 +22,8 @@ export type ComplexForm = 'rect' | 'polar-deg' | 'polar-rad';
 // (IEEE 488.2's "forgiving listening"); white space, "INF", "NAN" and hex are not numbers here.
 const NR1 = /^[+-]?\d+$/;
 const NR2 = /^[+-]?(?:\d+\.\d*|\.\d+)$/;
-const NR3 = /^[+-]?(?:\d+\.?\d*|\.\d+)[Ee][+-]?\d+$/;
+// Written so that no run of digits can be split two ways: a long garbage answer is refused in linear time.
+const NR3 = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)[Ee][+-]?\d+$/;
 
 // SCPI-99 vol. 1, 7.2.1 (from memory): +9.9E37 stands for +infinity / overload, -9.9E37 for -infinity,
 // 9.91E37 for not-a-number.

@@ -4,7 +4,7 @@
 import { closeSync, fsyncSync, openSync, readFileSync, renameSync, writeSync } from 'node:fs';
 import path from 'node:path';
 import { z } from 'zod';
-import type { Board } from '../board/types.js';
+import { GROUND, type Board } from '../board/types.js';
 import { LogError } from './log-error.js';
 
 export const META_FORMAT = 'topoprobe-log-meta/1';
@@ -88,5 +88,32 @@ export function readMeta(file: string): LogMeta {
     const issue = parsed.error.issues[0];
     throw new LogError(file, `${issue.path.join('.') || 'the top level'}: ${issue.message}`);
   }
+  checkSnapshot(file, parsed.data.board.snapshot);
   return parsed.data as LogMeta;
+}
+
+const Positive = z.number().positive().finite();
+const SnapshotShape = z.object({
+  name: z.string(),
+  nodes: z.array(z.object({ name: z.string().min(1), position: z.tuple([z.number(), z.number(), z.number()]) })).min(1),
+  parts: z.array(z.object({ ref: z.string().min(1), kind: z.enum(['C', 'L', 'R']), nodes: z.tuple([z.string(), z.string()]), value: Positive, tolerance: z.number().nonnegative().optional(), esr: z.number().nonnegative().optional() })).min(1),
+});
+
+/**
+ * The analysis verbs compute everything from the snapshot, so it is checked here as far as they rely on it
+ * (fields and types, every part between known nodes): a damaged one is one line naming the field, not a
+ * failure deep inside a solver.
+ */
+function checkSnapshot(file: string, snapshot: unknown): void {
+  const parsed = SnapshotShape.safeParse(snapshot);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    throw new LogError(file, `${['board', 'snapshot', ...issue.path].join('.')}: ${issue.message}`);
+  }
+  const nodes = new Set(parsed.data.nodes.map((n) => n.name));
+  parsed.data.parts.forEach((part, i) => {
+    part.nodes.forEach((node, end) => {
+      if (node !== GROUND && !nodes.has(node)) throw new LogError(file, `board.snapshot.parts.${i}.nodes.${end}: no node "${node}" in the snapshot's nodes`);
+    });
+  });
 }

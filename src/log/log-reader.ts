@@ -4,6 +4,7 @@
 import { readFileSync } from 'node:fs';
 import { parse } from 'csv-parse/sync';
 import type { ReadingFlag } from '../run/run-events.js';
+import { GROUND } from '../board/types.js';
 import { LOG_COLUMNS, type LogRow } from './log-columns.js';
 import { LogError } from './log-error.js';
 import { CSV_RECORD_END } from './log-writer.js';
@@ -86,5 +87,19 @@ function readRow(file: string, cells: string[], line: number): LogRow {
   };
   if (cell('sense') !== '') row.sense = cell('sense');
   if (cell('note') !== '') row.note = cell('note');
+  checkTerminals(row, at);
   return row;
+}
+
+/** What every plan step guarantees (plan-checks.ts), so a row breaking it was edited or damaged. */
+function checkTerminals(row: LogRow, at: (column: string, why: string) => LogError): void {
+  if (!(row.frequency_hz > 0)) throw at('frequency_hz', `${row.frequency_hz} is not a frequency above zero`);
+  if (row.hi === '' || row.hi === GROUND) throw at('hi', `${JSON.stringify(row.hi)} is not a board node`);
+  if (row.kind === 'two-point') {
+    if (row.lo === '' || row.lo === GROUND || row.lo === row.hi) throw at('lo', `${JSON.stringify(row.lo)}: a two-point reading needs a second board node`);
+  } else if (row.lo !== GROUND) {
+    throw at('lo', `${JSON.stringify(row.lo)}: a ${row.kind} reading has lo "${GROUND}"`);
+  }
+  if (row.kind === 'transfer' && (row.sense === undefined || row.sense === GROUND)) throw at('sense', 'a transfer reading names the board node it senses');
+  if (row.kind !== 'transfer' && row.sense !== undefined) throw at('sense', `only transfer readings sense a node; this is a ${row.kind} reading`);
 }

@@ -124,11 +124,20 @@ export class ScanLog {
     }
   }
 
-  /** Closes the CSV and writes the final meta; later calls do nothing. */
-  finish(done: Pick<ScanDone, 'status' | 'reason' | 'safe'>): void {
+  /**
+   * Closes the CSV and writes the final meta; later calls do nothing. A final sync that fails still gets
+   * the meta written (as failed) before the failure is thrown.
+   */
+  finish(given: Pick<ScanDone, 'status' | 'reason' | 'safe'>): void {
     if (this.closed) return;
     this.closed = true;
-    this.writer.close();
+    let closeFailure: unknown;
+    try {
+      this.writer.close();
+    } catch (error) {
+      closeFailure = error;
+    }
+    const done = closeFailure === undefined ? given : { ...given, status: 'failed' as const, reason: given.reason ?? (closeFailure as Error).message };
     const ended = new Date().toISOString();
     const runs = [...this.meta.runs];
     runs[runs.length - 1] = {
@@ -141,5 +150,6 @@ export class ScanLog {
     };
     this.meta = { ...this.meta, ended, status: done.status, ...this.tally, runs };
     writeMeta(metaPathOf(this.file), this.meta);
+    if (closeFailure !== undefined) throw closeFailure;
   }
 }

@@ -53,8 +53,18 @@ export function firstOrderHalfWidths(sensitivity: ReadingSensitivity, combine: C
   return { logMag: QUADRATURE_COVERAGE_FACTOR * Math.sqrt(mag), phase: QUADRATURE_COVERAGE_FACTOR * Math.sqrt(phase) };
 }
 
+/**
+ * Widest ln|Z| half-width kept: a factor of 1000 either way. A reading near a zero of Z (a transfer reading
+ * at a node where the profile changes sign) has relative sensitivities so large that exp() overflows; the
+ * linear band means nothing long before that, and a plan file must hold finite numbers (JSON has no
+ * Infinity).
+ */
+const MAX_LOG_MAGNITUDE = Math.log(1e3);
+
 export function firstOrderSpread(sensitivity: ReadingSensitivity, combine: Combination): PointSpread {
-  const { logMag, phase } = firstOrderHalfWidths(sensitivity, combine);
+  const halfWidths = firstOrderHalfWidths(sensitivity, combine);
+  const logMag = Math.min(halfWidths.logMag, MAX_LOG_MAGNITUDE);
+  const phase = halfWidths.phase;
   const mag = Math.hypot(sensitivity.z.re, sensitivity.z.im);
   const dev = Math.min(phase, Math.PI);
   return { nominal: sensitivity.z, mag_min_ohm: mag * Math.exp(-logMag), mag_max_ohm: mag * Math.exp(logMag), phase_dev_min_rad: -dev, phase_dev_max_rad: dev };

@@ -6,8 +6,8 @@
 // is then t/√3. Series resistances (esr, also where given as a Q) keep their nominal ohms, and parts
 // without a tolerance keep their nominal value.
 //
-// Uniform numbers come from mathjs's seeded generator, so a seed gives the same samples every run.
-import { create, randomDependencies } from 'mathjs';
+// Uniform numbers come from a seeded generator (the one mathjs uses), so a seed gives the same samples every run.
+import { seededUniform } from '../numeric/seeded-uniform.js';
 import type { Board, Part } from '../board/types.js';
 
 export const TOLERANCE_DISTRIBUTION = 'uniform within ±tolerance, parts independent; esr kept nominal';
@@ -30,13 +30,13 @@ export interface SampleOptions {
 
 /** `count` samples; the parts are drawn in board order, so the same board and seed give the same values. */
 export function drawToleranceSamples(board: Pick<Board, 'parts'>, options: SampleOptions): ToleranceSample[] {
-  const math = create({ randomDependencies }, { randomSeed: `topoprobe-tolerance-${options.seed}` });
+  const uniform = seededUniform(`topoprobe-tolerance-${options.seed}`);
   const varying = board.parts.filter((p) => (p.tolerance ?? 0) > 0);
   const samples: ToleranceSample[] = [];
   for (let index = 0; index < options.count; index++) {
     const values = new Map<string, number>();
     for (const part of varying) {
-      const u = math.random() as number; // [0, 1)
+      const u = uniform(); // [0, 1)
       values.set(part.ref, part.value * (1 + (part.tolerance as number) * (2 * u - 1)));
     }
     samples.push({ index, values });

@@ -10,6 +10,18 @@ import { warning, type RunWarning } from './run-events.js';
 import { backoffMs, errorMessage, type RetryPolicy } from './recovery.js';
 import type { StopSignal } from './stop-signal.js';
 
+/**
+ * The instrument on a line answers *IDN? differently after a reconnect than when the run started (it
+ * rebooted into other firmware, or another instrument was plugged in): its readings would not be the same
+ * instrument's, and its settings are gone. The run stops safe rather than mix the two. Exit 3.
+ */
+export class IdentityChangedError extends InstrumentError {
+  constructor(role: string, endpoint: string, was: string, now: string) {
+    super(`${endpoint}: ${role} identity changed after reconnect: was ${JSON.stringify(was)}, now ${JSON.stringify(now)}; stopped`);
+    this.name = 'IdentityChangedError';
+  }
+}
+
 /** A relay that did not do what it was told: the bench is not safe to go on with. Exit 3. */
 export class RelayStateError extends InstrumentError {
   constructor(message: string) {
@@ -130,12 +142,17 @@ export class BenchControl {
     }
   }
 
-  /** Reconnects every link whose line is down, with growing pauses; throws the last failure past the limit. */
+  /**
+   * Reconnects every link whose line is down, with growing pauses; throws the last failure past the limit.
+   * The instrument must answer *IDN? as it did before: one that comes back as another (a reboot into other
+   * firmware, a swapped unit) stops the run with IdentityChangedError, even if its profile would take it.
+   */
   async reconnect(cause: unknown): Promise<void> {
     const down = this.links.filter((l) => !l.session.transport.isOpen);
     const targets = down.length > 0 ? down : this.links;
     this.forget();
     for (const link of targets) {
+      const before = link.identity?.raw;
       for (let attempt = 1; ; attempt++) {
         if (this.o.stop.requested) return;
         try {
@@ -151,6 +168,8 @@ export class BenchControl {
           await realWaits(pause, this.o.stop);
         }
       }
+      const after = link.identity?.raw;
+      if (before !== undefined && after !== undefined && after !== before) throw new IdentityChangedError(link.role, link.session.endpoint, before, after);
     }
   }
 

@@ -38,6 +38,8 @@ export function runScanJob(o: ScanJobOptions): Observable<RunEvent> {
   );
   const finish$ = defer(async () => {
     const result = await bringToSafeState({ analyzer: o.analyzer, switchMatrix: o.switchMatrix, probes: o.probes, channels: planChannels(o.plan) });
+    // A stop raised by a failure outside the scan (the log) ends the run as failed, not interrupted.
+    failure ??= o.stop.failure;
     const status = failure !== undefined ? 'failed' : o.stop.requested ? 'interrupted' : 'complete';
     const reason = failure !== undefined ? errorMessage(failure) : o.stop.requested ? o.stop.reason : undefined;
     const done: ScanDone = { event: 'done', time: now(), status, ...tally, ...(reason ? { reason } : {}), safe: result.safe };

@@ -1,8 +1,12 @@
 // Reads a physical value written by a person ("10n", "10 nF", "2k2", 1e-8) into SI base units.
 // Strings that carry a unit go to mathjs, which knows the units and prefixes; only the forms mathjs does
-// not read (a bare prefix without unit, and the RKM code) are handled here.
+// not read (a bare prefix without unit, and the RKM code) are handled here, and the everyday form of a number,
+// an SI prefix and the expected unit's symbol ("10nF", "2.2 uH"), which mathjs would read the same way.
+// mathjs is loaded on first need: it costs about 90 MB resident, too much for a runner that reads only
+// such everyday values.
 
-import { unit as mathUnit, type Unit } from 'mathjs';
+import { createRequire } from 'node:module';
+import type { Unit } from 'mathjs';
 import { QuantityError } from './quantity-error.js';
 import { readRkm } from './rkm.js';
 import { prefixExponent } from './si-prefixes.js';
@@ -18,10 +22,21 @@ export interface QuantityOptions {
   allowZero?: boolean;
 }
 
-const NUMBER = String.raw`[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?`;
+// `\d+(?:\.\d*)?` rather than `\d+\.?\d*`: the same numbers, but a long run of digits that is no value is
+// refused in linear time instead of backtracking with the square of its length.
+const NUMBER = String.raw`[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?`;
 const PLAIN_NUMBER = new RegExp(`^${NUMBER}$`);
 const BARE_PREFIX = new RegExp(`^(${NUMBER})\\s*([yzafpnumkMGTPEZY])$`);
 const NUMBER_WITH_UNIT = new RegExp(`^${NUMBER}\\s*[A-Za-z]`);
+
+const PREFIX_AND_SYMBOL = new RegExp(`^(${NUMBER})\\s*([yzafpnumkMGTPEZY]?)(F|H|ohm|Hz|V|A|s)$`);
+
+const require = createRequire(import.meta.url);
+let mathjs: typeof import('mathjs') | undefined;
+function mathUnit(...args: [string] | [number, string]): Unit {
+  mathjs ??= require('mathjs') as typeof import('mathjs');
+  return (mathjs.unit as (...a: unknown[]) => Unit)(...args);
+}
 
 const EXAMPLES = 'like 10n, 10nF, "10 nF", 2k2, 4R7 or 1e-8';
 
@@ -61,6 +76,8 @@ function readValue(input: unknown, unit: UnitName): number {
     return rkm.value;
   }
 
+  const everyday = PREFIX_AND_SYMBOL.exec(text);
+  if (everyday && everyday[3] === UNITS[unit].mathjs) return scaleDecimal(everyday[1], everyday[2] === '' ? 0 : (prefixExponent(everyday[2]) as number));
   if (NUMBER_WITH_UNIT.test(text)) return convertWithUnit(text, shown, unit);
   if (text.includes(',')) throw new QuantityError(`${shown} is not a value: write the decimal point as "." ${EXAMPLES}`);
   throw new QuantityError(`${shown} is not a value: expected a number with an optional SI prefix and unit, ${EXAMPLES}`);

@@ -5,19 +5,22 @@ import { loadBoard } from '../../src/board/index.js';
 import { builtinProfile, type AnalyzerProfile, type SwitchProfile } from '../../src/instruments/index.js';
 import { predictBands } from '../../src/predict/bands.js';
 import { DEFAULT_FLOOR, derivePlan } from '../../src/plan/derive-plan.js';
+import { parsePlanText } from '../../src/plan/read-plan.js';
 import { ROOT } from '../support/run-cli.js';
 
 const board = loadBoard(path.join(ROOT, 'shared/boards/corner-8x8.yaml'));
-const { plan, notes } = derivePlan(board, {
-  modes: {},
-  neighbours: false,
-  transfer: false,
-  bands: { method: 'first-order', combine: 'worst-case' },
-  floor: DEFAULT_FLOOR,
-  analyzer: { name: 'generic-analyzer', profile: builtinProfile('generic-analyzer') as AnalyzerProfile },
-  switch: { name: 'generic-switch', profile: builtinProfile('generic-switch') as SwitchProfile },
-  averages: 2,
-});
+const cornerPlan = (transfer: boolean, combine: 'worst-case' | 'quadrature') =>
+  derivePlan(board, {
+    modes: {},
+    neighbours: false,
+    transfer,
+    bands: { method: 'first-order', combine },
+    floor: DEFAULT_FLOOR,
+    analyzer: { name: 'generic-analyzer', profile: builtinProfile('generic-analyzer') as AnalyzerProfile },
+    switch: { name: 'generic-switch', profile: builtinProfile('generic-switch') as SwitchProfile },
+    averages: 2,
+  });
+const { plan, notes } = cornerPlan(false, 'worst-case');
 
 describe('plan for corner-8x8', () => {
   it('chooses the four corner modes, inside the band gap around 1/(2π√(22 µH · 83.7 nF)) ≈ 117.3 kHz', () => {
@@ -50,5 +53,21 @@ describe('plan for corner-8x8', () => {
   it('alternates the direction of the two-point profiles, so most nodes need one frequency change, not two', () => {
     expect(plan.estimate.frequency_changes).toBeLessThan(notes.naive.frequency_changes);
     expect(plan.bands).toMatchObject({ method: 'first-order', combine: 'worst-case', coverage: 1 });
+  });
+});
+
+describe('first-order bands of transfer readings near a sign change of the profile', () => {
+  it('stay finite, so the plan can be written and passes its own check', () => {
+    // Where the transfer impedance nearly vanishes, relative sensitivities are huge; exp() of them overflows.
+    const { plan: withTransfer } = cornerPlan(true, 'quadrature');
+    const transfers = withTransfer.steps.filter((s) => s.kind === 'transfer');
+    expect(transfers.length).toBeGreaterThan(0);
+    for (const s of transfers) {
+      for (const p of s.points) {
+        expect(Number.isFinite(p.band.mag_hi_ohm), `step ${s.step} at ${p.frequency_hz} Hz`).toBe(true);
+        expect(p.band.mag_hi_ohm).toBeGreaterThanOrEqual(p.band.mag_lo_ohm);
+      }
+    }
+    expect(() => parsePlanText(JSON.stringify(withTransfer), 'corner-transfer.plan.json')).not.toThrow();
   });
 });

@@ -5,6 +5,8 @@ import { GROUND, type Board } from '../../../src/board/types.js';
 import { GroundedLaplacian } from '../../../src/circuit/laplacian.js';
 import { ImpedanceSolver } from '../../../src/circuit/impedance.js';
 import { defaultFixtureMap } from '../../../src/instruments/fixture-map.js';
+import { profileFrom, type AnalyzerProfile } from '../../../src/instruments/index.js';
+import { oneTwoFiveAtMost } from '../../../src/plan/excitation-level.js';
 import { boardHash } from '../../../src/plan/board-hash.js';
 import { writePlan } from '../../../src/plan/write-plan.js';
 import { PLAN_FORMAT, type PlanStep, type ReadingBand, type ScanPlan, type StepKind } from '../../../src/plan/types.js';
@@ -45,6 +47,21 @@ export function testPlan(board: Board, o: TestPlanOptions): ScanPlan {
   const magnitude = o.magnitude ?? 0.05;
   const phaseDeg = o.phaseDeg ?? 3;
   const operator = o.switchMatrix === null;
+  // Without an explicit level, each step gets what the planner would allow: at most 100 mV, and no more
+  // current into the step's lowest predicted drive impedance than the analyzer's limit (the runner refuses
+  // a plan beyond it).
+  const analyzer = profileFrom(o.analyzer ?? 'generic-analyzer') as AnalyzerProfile;
+  const levelFor = (hi: string, lo: string) => {
+    if (o.level_v !== undefined) return o.level_v;
+    const { currentA, levelV } = analyzer.limits;
+    if (currentA === undefined) return 0.1;
+    const driveOhm = (f: number) => {
+      const z = lo === GROUND ? solver.at(f).toGround(hi) : solver.at(f).between(hi, lo);
+      return Math.hypot(z.re, z.im);
+    };
+    const drive = Math.min(...o.frequencies.map(driveOhm));
+    return Math.max(levelV.min, Math.min(0.1, oneTwoFiveAtMost(currentA * drive)));
+  };
   const steps: PlanStep[] = o.steps.map((spec, i) => {
     const kind = spec.kind ?? (spec.sense ? 'transfer' : spec.lo && spec.lo !== GROUND ? 'two-point' : 'to-ground');
     const lo = spec.lo ?? GROUND;
@@ -58,7 +75,7 @@ export function testPlan(board: Board, o: TestPlanOptions): ScanPlan {
       lo,
       ...(spec.sense ? { sense: spec.sense } : {}),
       channels,
-      level_v: o.level_v ?? 0.1,
+      level_v: levelFor(spec.hi, lo),
       averages: o.averages ?? 1,
       settle_s: o.settle_s ?? 0,
       points: o.frequencies.map((f) => {
