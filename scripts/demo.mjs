@@ -7,7 +7,8 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
-const out = path.join(root, 'out', 'demo');
+// Outputs go to out/demo, or to the folder given as the one argument (the demo test uses a temporary one).
+const out = path.resolve(process.argv[2] ?? path.join(root, 'out', 'demo'));
 mkdirSync(out, { recursive: true });
 const board = 'shared/boards/chain-24.yaml';
 const fault = 'C_intra_0=open'; // the open joint our bench seeds: the 10 nF between n1 and n2
