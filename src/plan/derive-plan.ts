@@ -95,6 +95,7 @@ export function derivePlan(board: Board, request: PlanRequest): DerivedPlan {
       ...(r.reading.sense !== undefined ? { sense: r.reading.sense } : {}),
       channels: channels[i],
       level_v: levels[i],
+      ...(loads[i].ratedPart ? { rated: { part: loads[i].ratedPart, volts_per_volt: loads[i].ratedRatio } } : {}),
       averages: request.averages,
       settle_s: settle,
       points: r.frequencies.map((f, p) => ({ frequency_hz: f, pred_re: spreads[i][p].nominal.re, pred_im: spreads[i][p].nominal.im, band: bandFromSpread(spreads[i][p], request.floor) })),

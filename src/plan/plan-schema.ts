@@ -42,6 +42,7 @@ export const StepShape = z.strictObject({
   sense: name().optional(),
   channels: z.array(channel()),
   level_v: positive(),
+  rated: z.strictObject({ part: z.string().min(1), volts_per_volt: notNegative() }).optional(),
   averages: z.number().int('must be a whole number').min(1, 'must be at least 1'),
   settle_s: notNegative(),
   points: z.array(PointShape).min(1, 'needs at least one point'),

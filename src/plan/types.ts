@@ -46,6 +46,12 @@ export interface PlanStep {
   /** Matrix channels to close for this step (from the plan's fixture map), HI first. */
   channels: number[];
   level_v: number;
+  /**
+   * The rated part that binds this step's level, with the voltage the plan predicts across it per volt of
+   * level (largest over the step's points). Absent when the board states no ratings. The runner checks
+   * level_v · volts_per_volt against the part's rating without any physics of its own.
+   */
+  rated?: { part: string; volts_per_volt: number };
   averages: number;
   /**
    * Wait after closing the relays (operator-probed plans: after the operator confirms the probes) before

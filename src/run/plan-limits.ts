@@ -3,8 +3,8 @@
 // what the plan itself says about the board: the current its own predicted impedances draw at that level,
 // and the rating of a part that sits straight across the terminals (it sees the whole level). A plan that
 // asks for more, made so or edited by hand, is refused with one line naming the step, the value and the
-// limit. Exit 2. Only the plan's numbers are used (Ohm's law on its predictions), no physics: the voltage a
-// resonance puts across parts elsewhere is the planner's to keep within their ratings.
+// limit. Exit 2. Only the plan's numbers are used (Ohm's law on its predictions, and the voltage per volt
+// of level the planner predicted across the rated part that binds each step), no physics of its own.
 import { GROUND, type Part } from '../board/types.js';
 import { LimitError, type AnalyzerProfile, type SwitchProfile } from '../instruments/index.js';
 import type { PlanStep, ScanPlan } from '../plan/types.js';
@@ -33,6 +33,16 @@ export function checkPlanLimits(planFile: string, plan: ScanPlan, analyzer: Anal
           `level ${formatQuantity(step.level_v, 'V')} drives ${formatQuantity(worst.amps, 'A')} into the predicted ${formatQuantity(worst.ohms, 'ohm')} of ${step.hi} to ${step.lo} at ${formatQuantity(step.points[worst.point].frequency_hz, 'Hz')}`,
           `limits.current ${formatQuantity(limits.currentA, 'A')}`,
           analyzer,
+        );
+      }
+    }
+    if (step.rated) {
+      const part = plan.board.snapshot.parts.find((p) => p.ref === step.rated!.part);
+      const across = step.level_v * step.rated.volts_per_volt;
+      if (part?.rating_v !== undefined && across > part.rating_v * (1 + 1e-9)) {
+        throw new LimitError(
+          `${planFile}: ${where}: level ${formatQuantity(step.level_v, 'V')} puts ${formatQuantity(across, 'V')} across ${part.ref} (the plan's own prediction, ${step.rated.volts_per_volt.toPrecision(3)} V per volt), above its rating ${formatQuantity(part.rating_v, 'V')}; nothing was sent`,
+          'rating',
         );
       }
     }

@@ -19,8 +19,13 @@ export interface SafeStateTargets {
   channels: readonly number[];
 }
 
-/** Each action gets this many tries (reconnecting a dropped line in between). */
-const TRIES = 2;
+/**
+ * Each action gets this many tries, reconnecting a dropped line in between after a growing pause: a line
+ * that has just dropped (a USB adapter re-enumerating, a link being re-plugged) takes a moment to come back,
+ * and the safe state is the one thing that must not give up at the first refusal. At most about 1.75 s.
+ */
+const TRIES = 4;
+const FIRST_PAUSE_MS = 250;
 
 export async function bringToSafeState(t: SafeStateTargets): Promise<SafeStateResult> {
   const warnings: RunWarning[] = [];
@@ -36,6 +41,7 @@ export async function bringToSafeState(t: SafeStateTargets): Promise<SafeStateRe
           safe = false;
           warnings.push(warning(link.role, `could not ${what} on ${link.session.endpoint}: ${errorMessage(error)}; check the bench by hand`));
         } else if (!link.session.transport.isOpen || isLineError(error)) {
+          await new Promise((r) => setTimeout(r, FIRST_PAUSE_MS * 2 ** (i - 1)));
           await link.restart().catch(() => undefined);
         }
       }

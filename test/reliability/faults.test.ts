@@ -177,7 +177,7 @@ describe.skipIf(!ptyAvailable).concurrent('faults injected into a scan', () => {
         expect(rowsAfterRun.length).toBe(meta.readings);
       }
       // A stuck-closed relay cannot be opened: the runner must say the bench is not safe, naming it.
-      expect(done?.safe).toBe(c.stuckClosed === undefined);
+      expect(done?.safe, `${context}; stdout tail: ${run.stdout().slice(-1500)}`).toBe(c.stuckClosed === undefined);
       if (c.stuckClosed !== undefined) expect(run.stdout()).toMatch(new RegExp(`could not open every relay .*channel ${c.stuckClosed} still read closed; check the bench by hand`));
       expect(closedAfter).toBe(expectedClosed);
       // In process, the contacts themselves: the matrix's answer above is not taken on trust.
