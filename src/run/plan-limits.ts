@@ -36,20 +36,20 @@ export function checkPlanLimits(planFile: string, plan: ScanPlan, analyzer: Anal
         );
       }
     }
+    for (const part of partsAcrossTerminals(plan, step)) {
+      if (part.rating_v !== undefined && step.level_v > part.rating_v * (1 + 1e-9)) {
+        throw new LimitError(
+          `${planFile}: ${where}: level ${formatQuantity(step.level_v, 'V')} is across ${part.ref} (${part.nodes.join(' to ')}), above its rating ${formatQuantity(part.rating_v, 'V')} in the plan's board; nothing was sent`,
+          'rating',
+        );
+      }
+    }
     if (step.rated) {
       const part = plan.board.snapshot.parts.find((p) => p.ref === step.rated!.part);
       const across = step.level_v * step.rated.volts_per_volt;
       if (part?.rating_v !== undefined && across > part.rating_v * (1 + 1e-9)) {
         throw new LimitError(
           `${planFile}: ${where}: level ${formatQuantity(step.level_v, 'V')} puts ${formatQuantity(across, 'V')} across ${part.ref} (the plan's own prediction, ${step.rated.volts_per_volt.toPrecision(3)} V per volt), above its rating ${formatQuantity(part.rating_v, 'V')}; nothing was sent`,
-          'rating',
-        );
-      }
-    }
-    for (const part of partsAcrossTerminals(plan, step)) {
-      if (part.rating_v !== undefined && step.level_v > part.rating_v * (1 + 1e-9)) {
-        throw new LimitError(
-          `${planFile}: ${where}: level ${formatQuantity(step.level_v, 'V')} is across ${part.ref} (${part.nodes.join(' to ')}), above its rating ${formatQuantity(part.rating_v, 'V')} in the plan's board; nothing was sent`,
           'rating',
         );
       }

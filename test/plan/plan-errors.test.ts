@@ -139,7 +139,7 @@ describe('bad plan files (topoprobe plan --check)', () => {
     'transfer-without-sense.json': 'steps[4].sense: missing; a transfer step names the node it senses',
     'truncated.json': 'line 43, column 14: JSON syntax error: the text ends too early (a plan file is JSON)',
     'unknown-node.json': 'steps[2].hi: no node "p9" on the plan\'s board',
-    'unknown-step-field.json': 'steps[0].colour: unknown field (fields here: step, kind, purpose, hi, lo, sense, channels, level_v, averages, settle_s, points)',
+    'unknown-step-field.json': 'steps[0].colour: unknown field (fields here: step, kind, purpose, hi, lo, sense, channels, level_v, rated, averages, settle_s, points)',
     'zero-averages.json': 'steps[0].averages: must be at least 1',
   };
 
