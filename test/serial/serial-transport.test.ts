@@ -1,6 +1,9 @@
 // The serial transport over a real pseudo-terminal pair made by socat, at 115200 baud, against a small
 // responder on the other end: a conversation, terminators, a timeout, garbled bytes, a port already in
 // use, a wrong path, a reconnect, and the other end going away (socat killed).
+import { mkdtempSync, renameSync, rmSync, symlinkSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { toolAvailable } from '../support/requirements.js';
 import { SerialTransport } from '../../src/instruments/transports/serial-transport.js';
@@ -125,5 +128,26 @@ describe.skipIf(!hasSocat)('serial transport failures', () => {
     expect(transport.isOpen).toBe(false);
     expect((await rejection(session.query('*IDN?'))).failure).toBe('closed');
     await session.close();
+  });
+
+  it('a device link that comes to name another device is "closed by peer" too, with no hang-up to hear', async () => {
+    // Like /dev/serial/by-id/... after an adapter is swapped: the link now leads elsewhere, the old line is dead.
+    const pair = await startPtyPair();
+    const dir = mkdtempSync(path.join(tmpdir(), 'topoprobe-link-'));
+    const link = path.join(dir, 'analyzer');
+    symlinkSync(pair.near, link);
+    const transport = new SerialTransport({ path: link, baudRate: 115200 });
+    const session = new ScpiSession(transport, { timeoutMs: 10_000 });
+    await session.open();
+    const waiting = session.query('*IDN?'); // nobody answers, and socat keeps both ends up
+    const moved = path.join(dir, 'moved');
+    symlinkSync(pair.far, moved);
+    renameSync(moved, link);
+    const error = await rejection(waiting);
+    expect(error.failure).toBe('closed');
+    expect(error.message).toBe(`${link}: closed by peer: the port went away (cable or adapter unplugged, or the instrument switched off)`);
+    await session.close();
+    await pair.stop();
+    rmSync(dir, { recursive: true, force: true });
   });
 });

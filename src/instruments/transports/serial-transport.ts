@@ -2,6 +2,7 @@
 // serialport library. The port object is made afresh on every open, so close and reopen (a reconnect)
 // start from a clean state.
 
+import { realpathSync } from 'node:fs';
 import { SerialPort } from 'serialport';
 import { TransportError, type Transport } from '../transport.js';
 import { openFailure } from './serial-failures.js';
@@ -22,6 +23,13 @@ export interface SerialSettings {
   flowControl?: FlowControl;
 }
 
+/**
+ * How often the device node is looked at while the port is open. An unplugged adapter (or a pseudo-terminal
+ * whose other side closed) takes its node away; the library's hang-up report is the usual way to hear of it,
+ * but a busy machine can be late with it, and a query would then wait out its timeout on a dead line.
+ */
+const DEVICE_WATCH_MS = 500;
+
 export const DISCONNECTED_REASON = 'closed by peer: the port went away (cable or adapter unplugged, or the instrument switched off)';
 
 export class SerialTransport implements Transport {
@@ -30,6 +38,7 @@ export class SerialTransport implements Transport {
   private port?: SerialPort;
   private receiver?: (chunk: Uint8Array) => void;
   private closeListener?: (reason: string) => void;
+  private watch?: NodeJS.Timeout;
 
   constructor(readonly settings: SerialSettings) {
     this.endpoint = settings.path;
@@ -66,10 +75,10 @@ export class SerialTransport implements Transport {
     port.on('error', () => undefined);
     port.on('close', (err: (Error & { disconnected?: boolean }) | null) => {
       if (this.port !== port) return; // our own close(): not news to anyone
-      this.port = undefined;
-      this.closeListener?.(err?.disconnected ? DISCONNECTED_REASON : `closed: ${err?.message ?? 'the port closed'}`);
+      this.lost(err?.disconnected ? DISCONNECTED_REASON : `closed: ${err?.message ?? 'the port closed'}`);
     });
     this.port = port;
+    this.watchDevice(port);
     // Bytes an instrument sent before we listened (a power-on banner, a late answer to the last session)
     // would otherwise become the answer to our first query.
     await new Promise<void>((resolve) => port.flush(() => resolve()));
@@ -96,7 +105,36 @@ export class SerialTransport implements Transport {
   async close(): Promise<void> {
     const port = this.port;
     this.port = undefined;
+    clearInterval(this.watch);
     if (!port?.isOpen) return;
     await new Promise<void>((resolve) => port.close(() => resolve()));
+  }
+
+  private lost(reason: string): void {
+    this.port = undefined;
+    clearInterval(this.watch);
+    this.closeListener?.(reason);
+  }
+
+  /** A device path (POSIX) whose node goes away, or comes to name another device, is a disconnect. */
+  private watchDevice(port: SerialPort): void {
+    clearInterval(this.watch);
+    const device = resolved(this.settings.path);
+    if (device === undefined || !this.settings.path.startsWith('/')) return;
+    this.watch = setInterval(() => {
+      if (this.port !== port) return clearInterval(this.watch);
+      if (resolved(this.settings.path) === device) return;
+      this.lost(DISCONNECTED_REASON);
+      port.close(() => undefined);
+    }, DEVICE_WATCH_MS);
+    this.watch.unref();
+  }
+}
+
+function resolved(path: string): string | undefined {
+  try {
+    return realpathSync(path);
+  } catch {
+    return undefined;
   }
 }
