@@ -1,6 +1,6 @@
 // `topoprobe fit <log>`: fit component values, losses and spread to a logged scan; write the fitted board.
 import { Command } from 'commander';
-import { fitBoard } from '../analysis/fit.js';
+import { FitError, fitBoard } from '../analysis/fit.js';
 import { boardAsDiagnosed } from '../analysis/board-as-diagnosed.js';
 import { diagnose } from '../analysis/diagnose.js';
 import type { CommonLeads } from '../analysis/diagnose-leads.js';
@@ -65,7 +65,7 @@ Examples:
         leads = diagnosis.leads;
         basis = fitBasisText(found, leads !== undefined);
       }
-      const result = fitBoard(board, scan.readings, spec, { leads });
+      const result = withFlagNames(() => fitBoard(board, scan.readings, spec, { leads }), options);
       if (options.output && result.converged) writeBoard(result.board, options.output, { overwrite: options.overwrite, comment: `fitted by topoprobe fit to ${file}` });
       if (options.json) {
         const { board: _board, ...rest } = result;
@@ -85,6 +85,26 @@ Examples:
       }
       if (!result.converged) process.exitCode = EXIT.badInput;
     });
+}
+
+/** The fit names its spec's fields ("fit spec: parts[0]: ..."); on the command line the user gave flags. */
+const FLAG_OF_FIELD: [RegExp, (o: FitOptions) => string][] = [
+  [/^fit spec: parts(\[\d+\])?: /, (o) => `--parts ${o.parts ?? ''}: `],
+  [/^fit spec: capacitanceScale: /, () => '--scale C: '],
+  [/^fit spec: inductanceScale: /, () => '--scale L: '],
+  [/^fit spec: inductorResistance: /, (o) => (o.coilQ !== undefined ? `--coil-q ${o.coilQ}: ` : '--coil-resistance: ')],
+  [/^fit spec: /, () => ''],
+];
+
+function withFlagNames<T>(fit: () => T, o: FitOptions): T {
+  try {
+    return fit();
+  } catch (error) {
+    if (!(error instanceof FitError)) throw error;
+    const rule = FLAG_OF_FIELD.find(([pattern]) => pattern.test(error.message));
+    if (!rule) throw error;
+    throw new UsageError(error.message.replace(rule[0], rule[1](o)));
+  }
 }
 
 function fitSpec(o: FitOptions): FitSpec {

@@ -46,8 +46,8 @@ export function parseQuantity(input: unknown, unit: UnitName, options: QuantityO
   const shown = typeof input === 'string' ? JSON.stringify(input) : String(input);
   if (Number.isNaN(value)) throw new QuantityError(`${shown} is not a number`);
   if (!Number.isFinite(value)) throw new QuantityError(`${shown} is not finite`);
-  if (value < 0) throw new QuantityError(`${shown} is negative; a part value must be greater than zero`);
-  if (value === 0 && !options.allowZero) throw new QuantityError(`${shown} is zero; a part value must be greater than zero`);
+  if (value < 0) throw new QuantityError(`${shown} is negative; it must be greater than zero`);
+  if (value === 0 && !options.allowZero) throw new QuantityError(`${shown} is zero; it must be greater than zero`);
   return value;
 }
 

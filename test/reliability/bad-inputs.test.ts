@@ -476,7 +476,7 @@ refusedPlan('--floor-relative without %', ['--floor-relative', '2'], /^topoprobe
 refusedPlan('--floor-absolute in volts', ['--floor-absolute', '5mV'], /^topoprobe: --floor-absolute 5mV: "5mV" is in volts, expected ohms$/);
 refusedPlan('--fixture with --switch none', ['--switch', 'none', '--fixture', FIXTURE], /^topoprobe: --fixture: an operator-probed plan/);
 refusedPlan('--probe-time with a switch', ['--probe-time', '5s'], /^topoprobe: --probe-time: goes with operator-probed plans/);
-refusedPlan('--probe-time negative', ['--switch', 'none', '--probe-time', '-5s'], /^topoprobe: --probe-time -5s: .*negative/);
+refusedPlan('--probe-time negative', ['--switch', 'none', '--probe-time', '-5s'], /^topoprobe: --probe-time -5s: "-5s" is negative; it must be greater than zero$/);
 refusedPlan('--probe-time in kilograms', ['--switch', 'none', '--probe-time', '5 kg'], /^topoprobe: --probe-time 5 kg: /);
 refusedPlan('--averages 0', ['--averages', '0'], /^topoprobe: --averages 0: expected a whole number/);
 refusedPlan('--averages -1', ['--averages', '-1'], /^topoprobe: --averages -1: expected a whole number/);
@@ -568,7 +568,8 @@ flag('diagnose: --parts unknown', () => ['diagnose', GOOD_LOG, '--parts', 'NOPE'
 flag('fit: --scale X', () => ['fit', GOOD_LOG, '--scale', 'X'], /^topoprobe: --scale X: expected C, L or C,L$/);
 flag('fit: --coil-resistance and --coil-q', () => ['fit', GOOD_LOG, '--coil-resistance', '--coil-q', '100k'], /^topoprobe: give --coil-resistance or --coil-q, not both$/);
 flag('fit: --coil-q 12 parsecs', () => ['fit', GOOD_LOG, '--coil-q', '12 parsecs'], /^topoprobe: --coil-q 12 parsecs: /);
-flag('fit: --parts unknown', () => ['fit', GOOD_LOG, '--parts', 'NOPE'], /parts\[0\]: no part "NOPE" on board pair/);
+flag('fit: --parts unknown', () => ['fit', GOOD_LOG, '--parts', 'NOPE'], /^topoprobe: --parts NOPE: no part "NOPE" on board pair/);
+flag('fit: --parts twice', () => ['fit', GOOD_LOG, '--parts', 'C1,C1'], /^topoprobe: --parts C1,C1: C1 is named twice$/);
 const fittedExisting = written('fitted.yaml', 'name: earlier fit\n');
 flag('fit: -o over an existing file', () => ['fit', GOOD_LOG, '-o', fittedExisting], /fitted\.yaml: cannot write the board: the file exists already/, { file: 'fitted.yaml', keeps: fittedExisting });
 flag('report: no -o', () => ['report', GOOD_LOG], /required option '-o, --output <file\.html>' not specified/);

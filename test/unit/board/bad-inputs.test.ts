@@ -24,7 +24,7 @@ const SINGLE: Record<string, [string, RegExp]> = {
   'missing-value.yaml': ['components[1].value', /^missing$/],
   'malformed-value.yaml': ['components[1].value', /^"ten nano" is not a value/],
   'wrong-unit.yaml': ['components[1].value', /^"10uH" is in henries, expected farads$/],
-  'zero-value.yaml': ['components[1].value', /zero; a part value must be greater than zero$/],
+  'zero-value.yaml': ['components[1].value', /zero; it must be greater than zero$/],
   'negative-value.yaml': ['components[1].value', /^"-10n" is negative/],
   'duplicate-ref.yaml': ['components[2].ref', /^duplicate reference designator "C1" \(also at components\[0\]\.ref\)$/],
   'self-loop.yaml': ['components[1].nodes', /^both ends are on node "n1"/],
