@@ -5,7 +5,7 @@
 // Timing: a measurement takes (baseTimeMs + averages x perAverageMs) x timeScale. INITiate is overlapped: it
 // returns at once and *OPC?, *WAI and FETCh? wait for the measurement. READ? is INITiate followed by FETCh?.
 
-import type { SimulatedDevice } from './device.js';
+import { ScpiInstrument } from './scpi-instrument.js';
 import type { MeasurementReading, MeasurementRequest, MeasurementSource } from './measurement-source.js';
 import type { CommandSpec } from './scpi/command-tree.js';
 import type { NumericSpec } from './scpi/parameters.js';
@@ -54,8 +54,8 @@ interface Running {
   cancel(): void;
 }
 
-export class SimulatedAnalyzer implements SimulatedDevice {
-  private readonly scpi: ScpiDevice;
+export class SimulatedAnalyzer extends ScpiInstrument {
+  protected readonly scpi: ScpiDevice;
   private readonly source: MeasurementSource;
   private readonly timeScale: number;
   private readonly baseTimeMs: number;
@@ -66,6 +66,7 @@ export class SimulatedAnalyzer implements SimulatedDevice {
   private last?: MeasurementReading;
 
   constructor(options: AnalyzerOptions) {
+    super();
     this.source = options.source;
     this.timeScale = nonNegative('timeScale', options.timeScale ?? 1);
     this.baseTimeMs = nonNegative('baseTimeMs', options.baseTimeMs ?? 20);
@@ -80,30 +81,6 @@ export class SimulatedAnalyzer implements SimulatedDevice {
       },
       { errorQueueSize: options.errorQueueSize },
     );
-  }
-
-  get identity(): string {
-    return this.scpi.identity;
-  }
-
-  receive(message: string): Promise<string | undefined> {
-    return this.scpi.receive(message);
-  }
-
-  reset(): void {
-    this.scpi.reset();
-  }
-
-  reboot(): void {
-    this.scpi.reboot();
-  }
-
-  injectError(code: number, detail?: string): void {
-    this.scpi.injectError(code, detail);
-  }
-
-  unterminatedQuery(fragment: string): void {
-    this.scpi.unterminatedQuery(fragment);
   }
 
   /** The duration of one measurement with the present settings, in ms of real time. */

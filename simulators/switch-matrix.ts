@@ -6,7 +6,7 @@
 // its contacts, the queries report the commanded state; `closedChannels()` reports the contacts. With
 // `senseContacts` (a matrix with relay readback) the queries report the contacts, so a stuck relay shows.
 
-import type { SimulatedDevice } from './device.js';
+import { ScpiInstrument } from './scpi-instrument.js';
 import type { CommandSpec } from './scpi/command-tree.js';
 import { delay } from './scpi/delay.js';
 import { channelList, nr1 } from './scpi/response-format.js';
@@ -67,10 +67,10 @@ export interface SwitchMatrixOptions {
 
 export type ChangeListener = (closed: ReadonlySet<number>) => void;
 
-export class SimulatedSwitchMatrix implements SimulatedDevice {
+export class SimulatedSwitchMatrix extends ScpiInstrument {
   readonly contactResistanceOhm: number;
   readonly operateTimeMs: number;
-  private readonly scpi: ScpiDevice;
+  protected readonly scpi: ScpiDevice;
   private readonly commanded = new Set<number>();
   private contacts = new Set<number>();
   private readonly operations = new Map<number, number>();
@@ -85,6 +85,7 @@ export class SimulatedSwitchMatrix implements SimulatedDevice {
   private readonly senseContacts: boolean;
 
   constructor(options: SwitchMatrixOptions = {}) {
+    super();
     this.contactResistanceOhm = options.contactResistanceOhm ?? 0.15;
     this.operateTimeMs = options.operateTimeMs ?? 0;
     if (!(this.contactResistanceOhm >= 0) || !Number.isFinite(this.contactResistanceOhm)) throw new RangeError(`switch matrix: contactResistanceOhm must be a finite value >= 0, got ${this.contactResistanceOhm}`);
@@ -105,35 +106,11 @@ export class SimulatedSwitchMatrix implements SimulatedDevice {
         identity: `Topoprobe Lab,SIM-SW256,${options.serial ?? 'SW0001'},${VERSION}`,
         commands: this.commands(),
         resetSettings: () => this.openAllNow('*RST'),
+        // Power-on: every relay drops open. Operation counts and the conflict record survive, as on the bench.
         powerOn: () => this.openAllNow('power-on'),
       },
       { errorQueueSize: options.errorQueueSize },
     );
-  }
-
-  get identity(): string {
-    return this.scpi.identity;
-  }
-
-  receive(message: string): Promise<string | undefined> {
-    return this.scpi.receive(message);
-  }
-
-  /** Power-on: every relay drops open. Operation counts and the conflict record survive, as on the bench. */
-  reset(): void {
-    this.scpi.reset();
-  }
-
-  reboot(): void {
-    this.scpi.reboot();
-  }
-
-  injectError(code: number, detail?: string): void {
-    this.scpi.injectError(code, detail);
-  }
-
-  unterminatedQuery(fragment: string): void {
-    this.scpi.unterminatedQuery(fragment);
   }
 
   /** The channels whose contacts are closed now (stuck relays included): what the physics connects. */

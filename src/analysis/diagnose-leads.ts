@@ -29,6 +29,28 @@ export interface CommonLeads {
   transfer: LeadSet;
 }
 
+/** A board impedance Z = re + j·im as read through `leads`: Z_s + Z / (1 + Z·Y_o), Z_s = R + jωL, Y_o = jωC. */
+export function throughLeads(leads: LeadSet, omega: number, re: number, im: number): [number, number] {
+  const [dRe, dIm] = shuntDenominator(leads, omega, re, im);
+  const d2 = dRe * dRe + dIm * dIm;
+  const qRe = (re * dRe + im * dIm) / d2;
+  const qIm = (im * dRe - re * dIm) / d2;
+  return [qRe + leads.ohms, qIm + omega * leads.henries];
+}
+
+/** dZ_read / dZ = 1 / (1 + Z·Y_o)² = conj(d)² / |d|⁴, for the chain rule of the fit's Jacobian. */
+export function throughLeadsGain(leads: LeadSet, omega: number, re: number, im: number): [number, number] {
+  const [dRe, dIm] = shuntDenominator(leads, omega, re, im);
+  const d4 = (dRe * dRe + dIm * dIm) ** 2;
+  return [(dRe * dRe - dIm * dIm) / d4, (-2 * dRe * dIm) / d4];
+}
+
+/** d = 1 + Z·jωC = (1 − ωC·im) + j(ωC·re). */
+function shuntDenominator(leads: LeadSet, omega: number, re: number, im: number): [number, number] {
+  const b = omega * leads.farads;
+  return [1 - b * im, b * re];
+}
+
 /** log10 ranges searched; the lower end of each stands for none at all (a shorted node reads milliohms). */
 const RANGES = {
   ohms: [-4, 1.5],

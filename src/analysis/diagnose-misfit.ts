@@ -4,7 +4,7 @@
 // same anywhere on the board. In units of the reading's noise, a Huber loss (quadratic up to a knee,
 // linear beyond; P. J. Huber, Ann. Math. Stat. 35, 73 (1964)) keeps a few wild readings from deciding
 // the ranking alone, while noise-sized errors count as in least squares.
-import type { CommonLeads, LeadSet } from './diagnose-leads.js';
+import { throughLeads, type CommonLeads } from './diagnose-leads.js';
 import type { PreparedScan } from './diagnose-scan.js';
 
 /** Errors beyond this many noise widths count linearly. */
@@ -61,10 +61,6 @@ export class MisfitMeter {
     return copy;
   }
 
-  get commonLeads(): CommonLeads | undefined {
-    return this.leads;
-  }
-
   get count(): number {
     return this.measuredRe.length;
   }
@@ -96,18 +92,6 @@ export class MisfitMeter {
     const lnMagnitude = 0.5 * (this.lnMeasured2[i] - Math.log(this.magnitude2(z2)));
     return huberOfSquare((lnMagnitude * lnMagnitude + phase * phase) * this.inverseNoise2);
   }
-}
-
-/** Z_s + Z / (1 + Z·Y_o) with Z_s = R + jωL and Y_o = jωC (see diagnose-leads.ts). */
-function throughLeads(leads: LeadSet, omega: number, re: number, im: number): [number, number] {
-  const b = omega * leads.farads;
-  // 1 + Z·jωC = (1 − b·im) + j(b·re)
-  const dRe = 1 - b * im;
-  const dIm = b * re;
-  const d2 = dRe * dRe + dIm * dIm;
-  const qRe = (re * dRe + im * dIm) / d2;
-  const qIm = (im * dRe - re * dIm) / d2;
-  return [qRe + leads.ohms, qIm + omega * leads.henries];
 }
 
 /** Huber loss of t, given t² (the square root is only needed beyond the knee). */

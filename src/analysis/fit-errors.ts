@@ -9,3 +9,21 @@ export class FitError extends Error {
     this.name = 'FitError';
   }
 }
+
+/** The part of a fit spec a problem lies in, so that a caller can name its own word for it (a flag). */
+export type FitSpecField = 'capacitanceScale' | 'inductanceScale' | 'inductorResistance' | 'parts';
+
+/**
+ * A problem with one field of the fit spec: "fit spec: <subject><rest>", where subject names the field
+ * (parts[2], inductorResistance.atHz) and rest says what is wrong with it.
+ */
+export class FitSpecError extends FitError {
+  constructor(
+    readonly field: FitSpecField,
+    readonly subject: string,
+    readonly rest: string,
+  ) {
+    super(`fit spec: ${subject}${rest}`);
+    this.name = 'FitSpecError';
+  }
+}

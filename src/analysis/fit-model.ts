@@ -6,7 +6,7 @@
 // phase by about s/|Z| each (first order, common practice). An all-parts fit appends one prior row per part.
 // Given the common leads of the fixture (diagnose-leads.ts), the model reading is Z_s + Z / (1 + Z·Y_o)
 // of the board's Z, so that the fixture is not fitted into the parts; dZ_read/dθ = (dZ/dθ) / (1 + Z·Y_o)².
-import type { CommonLeads, LeadSet } from './diagnose-leads.js';
+import { throughLeads, throughLeadsGain, type CommonLeads } from './diagnose-leads.js';
 import type { Part } from '../board/types.js';
 import { ImpedanceSolver, SingularBoardError } from '../circuit/impedance.js';
 import type { GroundedLaplacian } from '../circuit/laplacian.js';
@@ -102,13 +102,13 @@ export class FitModel implements LeastSquaresProblem {
         residuals.fill(Number.NaN);
         return { residuals, jacobian };
       }
-      const admittance = withJacobian ? admittanceByParameter(parts, states, 2 * Math.PI * group.frequencyHz) : undefined;
       const omega = 2 * Math.PI * group.frequencyHz;
+      const admittance = withJacobian ? admittanceByParameter(parts, states, omega) : undefined;
       for (const r of group.readings) {
         const board = admittance ? probeSensitivities(column, r.probe, this.ends, g) : probeImpedance(column, r.probe);
         const leads = this.leads ? (r.reading.kind === 'transfer' ? this.leads.transfer : this.leads.twoTerminal) : undefined;
-        const seen = leads ? throughLeads(leads, omega, board) : undefined;
-        const z = seen ? seen.z : board;
+        const [zRe, zIm] = leads ? throughLeads(leads, omega, board.re, board.im) : [board.re, board.im];
+        const z = { re: zRe, im: zIm };
         const s = this.sigma[reading++];
         const m2 = r.re * r.re + r.im * r.im;
         residuals[row] = (0.5 * Math.log((z.re * z.re + z.im * z.im) / m2)) / s;
@@ -125,10 +125,11 @@ export class FitModel implements LeastSquaresProblem {
               acc.im[m] += gr * admittance.im[d] + gi * admittance.re[d];
             }
           }
-          if (seen) {
+          if (leads) {
+            const [gRe, gIm] = throughLeadsGain(leads, omega, board.re, board.im);
             for (let m = 0; m < P; m++) {
-              const re = acc.re[m] * seen.gain.re - acc.im[m] * seen.gain.im;
-              acc.im[m] = acc.re[m] * seen.gain.im + acc.im[m] * seen.gain.re;
+              const re = acc.re[m] * gRe - acc.im[m] * gIm;
+              acc.im[m] = acc.re[m] * gIm + acc.im[m] * gRe;
               acc.re[m] = re;
             }
           }
@@ -149,20 +150,6 @@ export class FitModel implements LeastSquaresProblem {
     }
     return { residuals, jacobian };
   }
-}
-
-/** The reading through the leads, and dZ_read/dZ = 1 / (1 + Z·Y_o)². */
-function throughLeads(leads: LeadSet, omega: number, z: { re: number; im: number }): { z: { re: number; im: number }; gain: { re: number; im: number } } {
-  const b = omega * leads.farads;
-  const dRe = 1 - b * z.im;
-  const dIm = b * z.re;
-  const d2 = dRe * dRe + dIm * dIm;
-  const qRe = (z.re * dRe + z.im * dIm) / d2;
-  const qIm = (z.im * dRe - z.re * dIm) / d2;
-  // 1 / d² = conj(d)² / |d|⁴
-  const cRe = dRe * dRe - dIm * dIm;
-  const cIm = -2 * dRe * dIm;
-  return { z: { re: qRe + leads.ohms, im: qIm + omega * leads.henries }, gain: { re: cRe / (d2 * d2), im: cIm / (d2 * d2) } };
 }
 
 /** dy_k/dθ_m of every part k at one frequency, flat: entries start[k] .. start[k+1]-1 belong to part k. */

@@ -3,7 +3,7 @@
 // the fit would then have no unique answer.
 import { closestName } from '../board/spelling.js';
 import type { Board, Part, PartKind } from '../board/types.js';
-import { FitError } from './fit-errors.js';
+import { FitError, FitSpecError } from './fit-errors.js';
 
 /** The inductors' series resistance: one R in ohms for all of them, or one Q at a stated frequency. */
 export type InductorResistanceSpec = { form: 'ohms' } | { form: 'q'; atHz: number };
@@ -36,10 +36,10 @@ export function checkFitSpec(board: Board, spec: FitSpec): CheckedSpec {
   const parts = board.parts;
   if (spec.allParts && (spec.capacitanceScale || spec.inductanceScale)) {
     const which = spec.capacitanceScale ? 'capacitanceScale' : 'inductanceScale';
-    throw new FitError(`fit spec: ${which} cannot be combined with allParts, which already frees every value (a scale on top has no unique solution)`);
+    throw new FitSpecError(which, which, ' cannot be combined with allParts, which already frees every value (a scale on top has no unique solution)');
   }
   if (spec.allParts && spec.parts && spec.parts.length > 0) {
-    throw new FitError('fit spec: parts cannot be combined with allParts, which already fits every part on its own');
+    throw new FitSpecError('parts', 'parts', ' cannot be combined with allParts, which already fits every part on its own');
   }
 
   let own: number[] = [];
@@ -49,19 +49,19 @@ export function checkFitSpec(board: Board, spec: FitSpec): CheckedSpec {
   const fittedOnOwn = new Set(own);
   const leftOfKind = (kind: PartKind) => parts.filter((p, k) => p.kind === kind && !fittedOnOwn.has(k)).length;
   if (spec.capacitanceScale && leftOfKind('C') === 0) {
-    throw new FitError(`fit spec: capacitanceScale: board ${board.name} has no capacitor left to scale`);
+    throw new FitSpecError('capacitanceScale', 'capacitanceScale', `: board ${board.name} has no capacitor left to scale`);
   }
   if (spec.inductanceScale && leftOfKind('L') === 0) {
-    throw new FitError(`fit spec: inductanceScale: board ${board.name} has no inductor left to scale`);
+    throw new FitSpecError('inductanceScale', 'inductanceScale', `: board ${board.name} has no inductor left to scale`);
   }
   const resistance = spec.inductorResistance;
   if (resistance) {
-    if (!parts.some((p) => p.kind === 'L')) throw new FitError(`fit spec: inductorResistance: board ${board.name} has no inductor`);
+    if (!parts.some((p) => p.kind === 'L')) throw new FitSpecError('inductorResistance', 'inductorResistance', `: board ${board.name} has no inductor`);
     if (resistance.form === 'q' && !(resistance.atHz > 0 && Number.isFinite(resistance.atHz))) {
-      throw new FitError(`fit spec: inductorResistance.atHz must be a frequency above zero, got ${resistance.atHz}`);
+      throw new FitSpecError('inductorResistance', 'inductorResistance.atHz', ` must be a frequency above zero, got ${resistance.atHz}`);
     }
     if (resistance.form !== 'ohms' && resistance.form !== 'q') {
-      throw new FitError(`fit spec: inductorResistance.form must be "ohms" or "q", got ${JSON.stringify((resistance as { form: unknown }).form)}`);
+      throw new FitSpecError('inductorResistance', 'inductorResistance.form', ` must be "ohms" or "q", got ${JSON.stringify((resistance as { form: unknown }).form)}`);
     }
   }
   const checked: CheckedSpec = {
@@ -82,8 +82,8 @@ function namedParts(board: Board, refs: readonly string[]): number[] {
   const seen = new Set<number>();
   refs.forEach((ref, i) => {
     const k = indexOf.get(ref);
-    if (k === undefined) throw new FitError(`fit spec: parts[${i}]: no part ${JSON.stringify(ref)} on board ${board.name}${hint(ref, board.parts)}`);
-    if (seen.has(k)) throw new FitError(`fit spec: parts[${i}]: ${ref} is named twice`);
+    if (k === undefined) throw new FitSpecError('parts', `parts[${i}]`, `: no part ${JSON.stringify(ref)} on board ${board.name}${hint(ref, board.parts)}`);
+    if (seen.has(k)) throw new FitSpecError('parts', `parts[${i}]`, `: ${ref} is named twice`);
     seen.add(k);
   });
   return [...seen].sort((a, b) => a - b);

@@ -1,6 +1,7 @@
 // `topoprobe fit <log>`: fit component values, losses and spread to a logged scan; write the fitted board.
 import { Command } from 'commander';
-import { FitError, fitBoard } from '../analysis/fit.js';
+import { fitBoard } from '../analysis/fit.js';
+import { FitSpecError, type FitSpecField } from '../analysis/fit-errors.js';
 import { boardAsDiagnosed } from '../analysis/board-as-diagnosed.js';
 import { diagnose } from '../analysis/diagnose.js';
 import type { CommonLeads } from '../analysis/diagnose-leads.js';
@@ -88,22 +89,25 @@ Examples:
 }
 
 /** The fit names its spec's fields ("fit spec: parts[0]: ..."); on the command line the user gave flags. */
-const FLAG_OF_FIELD: [RegExp, (o: FitOptions) => string][] = [
-  [/^fit spec: parts(\[\d+\])?: /, (o) => `--parts ${o.parts ?? ''}: `],
-  [/^fit spec: capacitanceScale: /, () => '--scale C: '],
-  [/^fit spec: inductanceScale: /, () => '--scale L: '],
-  [/^fit spec: inductorResistance: /, (o) => (o.coilQ !== undefined ? `--coil-q ${o.coilQ}: ` : '--coil-resistance: ')],
-  [/^fit spec: /, () => ''],
-];
+function flagOf(field: FitSpecField, o: FitOptions): string {
+  switch (field) {
+    case 'parts':
+      return `--parts ${o.parts ?? ''}`;
+    case 'capacitanceScale':
+      return '--scale C';
+    case 'inductanceScale':
+      return '--scale L';
+    case 'inductorResistance':
+      return o.coilQ !== undefined ? `--coil-q ${o.coilQ}` : '--coil-resistance';
+  }
+}
 
 function withFlagNames<T>(fit: () => T, o: FitOptions): T {
   try {
     return fit();
   } catch (error) {
-    if (!(error instanceof FitError)) throw error;
-    const rule = FLAG_OF_FIELD.find(([pattern]) => pattern.test(error.message));
-    if (!rule) throw error;
-    throw new UsageError(error.message.replace(rule[0], rule[1](o)));
+    if (error instanceof FitSpecError) throw new UsageError(`${flagOf(error.field, o)}${error.rest}`);
+    throw error;
   }
 }
 

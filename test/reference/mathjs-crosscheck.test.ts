@@ -8,6 +8,7 @@ import { ImpedanceSolver } from '../../src/circuit/impedance.js';
 import { predictModes } from '../../src/predict/modes.js';
 import { GROUND, type Board } from '../../src/board/types.js';
 import { makeBoard, seededRandom, type PartSpec } from '../support/make-board.js';
+import { mathjsAdmittanceMatrix } from '../support/mathjs-admittance.js';
 
 function randomBoard(seed: number): Board {
   const rand = seededRandom(seed);
@@ -32,30 +33,7 @@ function randomBoard(seed: number): Board {
 
 /** J(w) built independently with mathjs complex numbers. */
 function referenceJ(board: Board, omega: number): math.Matrix {
-  const names = board.nodes.map((n) => n.name);
-  const n = names.length;
-  const J = math.zeros(n, n) as math.Matrix;
-  const j = math.complex(0, 1);
-  for (const p of board.parts) {
-    const r = p.esr ?? 0;
-    const z =
-      p.kind === 'R'
-        ? math.complex(p.value, 0)
-        : p.kind === 'C'
-          ? math.add(r, math.divide(1, math.multiply(j, omega * p.value)))
-          : math.add(r, math.multiply(j, omega * p.value));
-    const y = math.divide(1, z) as math.Complex;
-    const a = names.indexOf(p.nodes[0]);
-    const b = names.indexOf(p.nodes[1]);
-    const add = (r0: number, c0: number, v: math.Complex) => J.set([r0, c0], math.add(J.get([r0, c0]), v));
-    if (a >= 0) add(a, a, y);
-    if (b >= 0) add(b, b, y);
-    if (a >= 0 && b >= 0) {
-      add(a, b, math.unaryMinus(y) as math.Complex);
-      add(b, a, math.unaryMinus(y) as math.Complex);
-    }
-  }
-  return J;
+  return mathjsAdmittanceMatrix(board.parts, board.nodes.map((n) => n.name), omega);
 }
 
 describe('impedances against mathjs lusolve', () => {

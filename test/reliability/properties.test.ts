@@ -6,17 +6,16 @@ import fc from 'fast-check';
 import { unit as mathUnit, complex as mathComplex } from 'mathjs';
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { queuedErrors, testAnalyzer } from '../support/scpi-devices.js';
 import { BoardError, parseBoardText, type Board } from '../../src/board/index.js';
 import { GROUND } from '../../src/board/types.js';
 import { AnswerError } from '../../src/instruments/instrument-errors.js';
 import { INVALID, readComplex, readFlags, readInteger, readNumber, readNumbers, readValue } from '../../src/instruments/answers.js';
 import { formatQuantity, parsePercent, parseQuantity, QuantityError, type UnitName } from '../../src/units/quantity.js';
 import { UNITS, UNIT_NAMES } from '../../src/units/unit-names.js';
-import { SimulatedAnalyzer } from '../../simulators/analyzer.js';
 import { SimulatedSwitchMatrix } from '../../simulators/switch-matrix.js';
 import { lexMessage } from '../../simulators/scpi/lexer.js';
 import { nr3 } from '../../simulators/scpi/response-format.js';
-import type { SimulatedDevice } from '../../simulators/device.js';
 import { tally } from '../support/reliability-tally.js';
 
 /** How long one property may keep generating cases; not an assertion (a property that runs out stops early). */
@@ -231,7 +230,7 @@ describe('the board parser (src/board, from text: YAML and JSON)', () => {
 
 // ---------------------------------------------------------------------------------------------------------
 describe("the simulators' SCPI parser (simulators/scpi)", () => {
-  const analyzer = () => new SimulatedAnalyzer({ source: { measure: () => ({ re: 50, im: -20 }) }, timeScale: 0 });
+  const analyzer = () => testAnalyzer();
   const matrix = () => new SimulatedSwitchMatrix({ routes: (c) => ({ bus: c < 2000 ? 'hi' : 'lo', node: `n${c % 10}` }) });
   const pieces = ['FREQ', 'freq', 'SOUR', 'SOURce1', 'SOUR9', 'VOLT', ':LEV', 'AVER', 'FUNC', 'IMP', 'TRAN', 'FORM', 'POL', 'READ?', 'FETC?', 'INIT', 'ROUT', ':CLOS', ':OPEN', ':ALL', 'ROUT:CLOS?', 'DIAG:REL:CYCL?', 'SYST:ERR?', '*IDN?', '*RST', '*CLS', '*OPC?', '*WAI', '*ESE', '*STB?', '*SRE 64', '*TST?', ':', ';', '?', ' ', ',', '(@', ')', '1001', '2000:1995', '1:9999', '0', '10000', '1k', '1e9', '-5', 'HZ', 'MHZ', 'KHZ', 'MV', 'MAX', 'MIN', 'DEF', 'INF', 'NAN', '#H1F', '#B102', '#Q7', '#3', '"', "'", '""', '(1+2)', 'E9', 'E99999', '\u00e9', '\t', 'ABCDEFGHIJKLMNOP'];
   const soup = fc.array(fc.constantFrom(...pieces), { maxLength: 14 }).map((p) => p.join(''));
@@ -247,16 +246,7 @@ describe("the simulators' SCPI parser (simulators/scpi)", () => {
     })));
   });
 
-  /** Every queued error, oldest first. */
-  async function drain(device: SimulatedDevice): Promise<string[]> {
-    const out: string[] = [];
-    for (let i = 0; i < 40; i++) {
-      const e = (await device.receive('SYST:ERR?')) ?? 'no answer';
-      if (e.startsWith('0,')) return out;
-      out.push(e);
-    }
-    return [...out, 'the queue never emptied'];
-  }
+  const drain = queuedErrors;
 
   it('random message lines: each is answered or queues standard errors, never an internal one, and *IDN? still answers', { timeout: HANG_MS }, async () => {
     await holds('scpi: simulated instruments driven with random lines', 300, fc.asyncProperty(fc.array(message, { minLength: 1, maxLength: 6 }), fc.boolean(), counted(async (lines, useMatrix) => {

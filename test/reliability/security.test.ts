@@ -7,7 +7,7 @@
 //     the source), and paths written as shell commands create nothing (checked at run time).
 // Escaping follows the HTML living standard's rules for text and attribute values (common practice: escape
 // & < > " '). Every check is tallied (area "safety").
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import net from 'node:net';
 import { networkInterfaces, tmpdir } from 'node:os';
 import path from 'node:path';

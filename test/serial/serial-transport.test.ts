@@ -5,24 +5,16 @@ import { mkdtempSync, renameSync, rmSync, symlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { transportRejection } from '../support/transport-rejection.js';
 import { toolAvailable } from '../support/requirements.js';
 import { SerialTransport } from '../../src/instruments/transports/serial-transport.js';
-import { TransportError } from '../../src/instruments/transport.js';
 import { ScpiSession } from '../../src/instruments/scpi-session.js';
 import { startPtyPair, startResponder, type PtyPair } from './pty-pair.js';
 
 const IDN = 'Topoprobe Lab,SIM-ZA100,ZA-0042,1.3.0';
 const hasSocat = toolAvailable('socat');
 
-async function rejection(promise: Promise<unknown>): Promise<TransportError> {
-  try {
-    await promise;
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportError);
-    return error as TransportError;
-  }
-  throw new Error('expected a TransportError');
-}
+const rejection = transportRejection;
 
 describe.skipIf(!hasSocat)('serial transport over a socat pty pair', () => {
   let pair: PtyPair;

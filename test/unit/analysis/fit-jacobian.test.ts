@@ -12,6 +12,7 @@ import { checkFitSpec, type FitSpec } from '../../../src/analysis/fit-spec.js';
 import { admittanceDerivatives } from '../../../src/analysis/sensitivity-admittance.js';
 import { partAdmittance } from '../../../src/circuit/admittance.js';
 import type { Reading } from '../../../src/analysis/readings.js';
+import type { CommonLeads } from '../../../src/analysis/diagnose-leads.js';
 
 const chain = loadBoard('shared/boards/chain-24.yaml');
 const tank = loadBoard('shared/boards/tank-3.json');
@@ -45,16 +46,16 @@ function mixedReadings(board: Board, frequencies: number[]): Reading[] {
   return out;
 }
 
-function modelFor(board: Board, spec: FitSpec, readings: Reading[]) {
+function modelFor(board: Board, spec: FitSpec, readings: Reading[], leads?: CommonLeads) {
   const laplacian = new GroundedLaplacian(board);
   const prepared = prepareReadings(readings, laplacian.index, board);
   const parameters = new FitParameters(board, checkFitSpec(board, spec), { referenceHz: 150e3 });
-  return { model: new FitModel(laplacian, prepared, parameters, { relative: 1e-3, floor: 0 }), theta: parameters.start };
+  return { model: new FitModel(laplacian, prepared, parameters, { relative: 1e-3, floor: 0 }, leads), theta: parameters.start };
 }
 
 /** Largest |adjoint - central difference| over all entries, relative to the largest entry. */
-function worstMismatch(board: Board, spec: FitSpec, readings: Reading[], moveBy: number[] = []): number {
-  const { model, theta: start } = modelFor(board, spec, readings);
+function worstMismatch(board: Board, spec: FitSpec, readings: Reading[], moveBy: number[] = [], leads?: CommonLeads): number {
+  const { model, theta: start } = modelFor(board, spec, readings, leads);
   // Away from nominal, so that no derivative is special by symmetry.
   const theta = start.map((t, m) => t + (moveBy[m] ?? 0.01 * Math.sin(3 * m + 1)));
   const { jacobian } = model.residualsAndJacobian(theta);
@@ -93,6 +94,16 @@ describe('adjoint Jacobian of the fit', () => {
   it('matches finite differences for named parts, a resistor among them, next to a scale', () => {
     const readings = mixedReadings(tank, [80e3, 120e3, 200e3]);
     expect(worstMismatch(tank, { parts: ['R1', 'C12', 'L2'], capacitanceScale: true }, readings)).toBeLessThan(1e-6);
+  });
+
+  it('matches finite differences through the fixture leads (the chain rule through Z_s + Z/(1 + Z·Y_o))', () => {
+    // Leads larger than any real fixture's, so that the factor 1/(1 + Z·Y_o)² is far from 1.
+    const leads: CommonLeads = {
+      twoTerminal: { ohms: 0.5, henries: 200e-9, farads: 2e-9 },
+      transfer: { ohms: 0.2, henries: 0, farads: 1e-9 },
+    };
+    const spec: FitSpec = { capacitanceScale: true, inductanceScale: true, inductorResistance: { form: 'ohms' } };
+    expect(worstMismatch(chain, spec, chainReadings, [], leads)).toBeLessThan(1e-6);
   });
 
   it('matches finite differences for an all-parts fit, prior rows included', () => {

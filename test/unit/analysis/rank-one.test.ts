@@ -13,6 +13,7 @@ import { buildBoardAsBuilt } from '../../../simulators/board-as-built.js';
 import { parseFaults } from '../../../simulators/faults.js';
 import { coupling, SolvedEntries, updatedReading, UpdatedEntries, bilinear, type NodePair } from '../../../src/analysis/rank-one.js';
 import { admittanceChange, type PartChange } from '../../../src/analysis/diagnose-change.js';
+import { mathjsAdmittanceMatrix } from '../../support/mathjs-admittance.js';
 import { RankOneModel } from '../../../src/analysis/rank-one-model.js';
 import { RefactorModel } from '../../../src/analysis/diagnose-refactor.js';
 import { prepareScan } from '../../../src/analysis/diagnose-scan.js';
@@ -135,27 +136,7 @@ describe('Sherman–Morrison update against mathjs inv of the changed J', () => 
   const names = board.nodes.map((n) => n.name);
   const omega = 2 * Math.PI * 250e3;
 
-  function mathjsJ(parts: readonly Part[]): math.Matrix {
-    const n = names.length;
-    const J = math.zeros(n, n) as math.Matrix;
-    const j = math.complex(0, 1);
-    for (const p of parts) {
-      const r = p.esr ?? 0;
-      const z =
-        p.kind === 'R' ? math.complex(p.value, 0) : p.kind === 'C' ? math.add(r, math.divide(1, math.multiply(j, omega * p.value))) : math.add(r, math.multiply(j, omega * p.value));
-      const y = math.divide(1, z) as math.Complex;
-      const a = names.indexOf(p.nodes[0]);
-      const b = names.indexOf(p.nodes[1]);
-      const add = (r0: number, c0: number, v: math.Complex) => J.set([r0, c0], math.add(J.get([r0, c0]), v));
-      if (a >= 0) add(a, a, y);
-      if (b >= 0) add(b, b, y);
-      if (a >= 0 && b >= 0) {
-        add(a, b, math.unaryMinus(y) as math.Complex);
-        add(b, a, math.unaryMinus(y) as math.Complex);
-      }
-    }
-    return J;
-  }
+  const mathjsJ = (parts: readonly Part[]) => mathjsAdmittanceMatrix(parts, names, omega);
 
   for (const [index, scale] of [
     [1, 1.5],

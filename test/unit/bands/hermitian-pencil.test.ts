@@ -8,10 +8,6 @@ import { seededRandom } from '../../support/make-board.js';
 
 type Cx = math.Complex;
 
-function toMathjs(n: number, a: ComplexDense): math.Matrix {
-  return math.matrix(Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => math.complex(a.re[i * n + j], a.im[i * n + j]))));
-}
-
 function fromMathjs(n: number, m: math.Matrix): ComplexDense {
   const re = new Float64Array(n * n);
   const im = new Float64Array(n * n);

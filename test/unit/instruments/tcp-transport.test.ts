@@ -2,8 +2,8 @@
 // session on top, refused connections, a peer that hangs up, a connect that never completes, reconnect.
 import { createServer, Socket, type Server } from 'node:net';
 import { afterEach, describe, expect, it } from 'vitest';
+import { transportRejection } from '../../support/transport-rejection.js';
 import { TcpTransport } from '../../../src/instruments/transports/tcp-transport.js';
-import { TransportError } from '../../../src/instruments/transport.js';
 import { ScpiSession } from '../../../src/instruments/scpi-session.js';
 
 const servers: Server[] = [];
@@ -34,15 +34,7 @@ function listen(onSocket?: (socket: Socket) => void): Promise<number> {
   return new Promise((resolve) => server.listen(0, '127.0.0.1', () => resolve((server.address() as { port: number }).port)));
 }
 
-async function rejection(promise: Promise<unknown>): Promise<TransportError> {
-  try {
-    await promise;
-  } catch (error) {
-    expect(error).toBeInstanceOf(TransportError);
-    return error as TransportError;
-  }
-  throw new Error('expected a TransportError');
-}
+const rejection = transportRejection;
 
 describe('TcpTransport', () => {
   it('carries a SCPI conversation', async () => {

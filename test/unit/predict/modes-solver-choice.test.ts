@@ -2,28 +2,12 @@
 // the modes must be those of the dense pencil solver generalizedModes (the outside reference here).
 import { describe, expect, it } from 'vitest';
 import { GroundedLaplacian } from '../../../src/circuit/laplacian.js';
-import { GROUND, loadBoard, type Board } from '../../../src/board/index.js';
+import { loadBoard } from '../../../src/board/index.js';
 import { generalizedModes, inverseParticipationRatio, modeShape } from '../../../src/numeric/pencil-modes.js';
 import { DENSE_NODE_LIMIT, predictModes, type Mode } from '../../../src/predict/modes.js';
-import { makeBoard, type PartSpec } from '../../support/make-board.js';
+import { dimerizedSquareBoard } from '../../bench/modes-boards.util.js';
 
-/** nx×ny dimerized square lattice in the manner of corner-8x8.yaml, edges terminated (our values). */
-function dimerized(nx: number, ny: number): Board {
-  const id = (x: number, y: number) => `s${x}_${y}`;
-  const xBond = (x: number) => (x % 2 === 0 ? 10e-9 : 22e-9);
-  const yBond = (y: number) => (y % 2 === 0 ? 4.7e-9 : 47e-9);
-  const specs: PartSpec[] = [];
-  for (let y = 0; y < ny; y++) {
-    for (let x = 0; x < nx; x++) {
-      specs.push(['L', id(x, y), GROUND, 22e-6]);
-      if (x + 1 < nx) specs.push(['C', id(x, y), id(x + 1, y), xBond(x)]);
-      if (y + 1 < ny) specs.push(['C', id(x, y), id(x, y + 1), yBond(y)]);
-    }
-  }
-  for (let y = 0; y < ny; y++) specs.push(['C', id(0, y), GROUND, xBond(1)], ['C', id(nx - 1, y), GROUND, xBond(nx - 1)]);
-  for (let x = 0; x < nx; x++) specs.push(['C', id(x, 0), GROUND, yBond(1)], ['C', id(x, ny - 1), GROUND, yBond(ny - 1)]);
-  return makeBoard(`dimerized-${nx}x${ny}`, specs);
-}
+const dimerized = dimerizedSquareBoard; // the same board as the modes benchmarks
 
 function dense(lap: GroundedLaplacian) {
   const d = lap.losslessMatrices();

@@ -3,15 +3,14 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { loadBoard, parseBoardText } from '../../../src/board/index.js';
-import { GROUND, type Board } from '../../../src/board/types.js';
+import { GROUND } from '../../../src/board/types.js';
 import { ImpedanceSolver } from '../../../src/circuit/impedance.js';
 import { GroundedLaplacian } from '../../../src/circuit/laplacian.js';
 import { buildBoardAsBuilt, floatingNodes, LEAKAGE_RESISTANCE, SHORT_RESISTANCE } from '../../../simulators/board-as-built.js';
 import { FaultError, parseFault, parseFaults } from '../../../simulators/faults.js';
-import { BenchPhysics, NO_PARASITICS, type BenchPhysicsOptions } from '../../../simulators/bench-physics.js';
+import { NO_PARASITICS } from '../../../simulators/bench-physics.js';
 import { makeBoard } from '../../support/make-board.js';
-import { FixtureMap, type FixtureMapData } from '../../../src/instruments/fixture-map.js';
-import { testBench, type TestBench, relativeError, closeOnly } from '../../support/physics-bench.js';
+import { testBench, relativeError, closeOnly } from '../../support/physics-bench.js';
 
 
 const chain = loadBoard('shared/boards/chain-24.yaml');

@@ -3,11 +3,10 @@
 // The bounds are sample statistics (common practice): the mean of N draws has standard error σ/sqrt(N),
 // a sample standard deviation about σ/sqrt(2N).
 import { describe, expect, it } from 'vitest';
-import { GROUND, type Board } from '../../../src/board/types.js';
-import { BenchOptionError, BenchPhysics, NO_PARASITICS, type BenchPhysicsOptions } from '../../../simulators/bench-physics.js';
+import { GROUND } from '../../../src/board/types.js';
+import { BenchOptionError, NO_PARASITICS } from '../../../simulators/bench-physics.js';
 import { makeBoard } from '../../support/make-board.js';
-import { FixtureMap, type FixtureMapData } from '../../../src/instruments/fixture-map.js';
-import { testBench, type TestBench, closeOnly } from '../../support/physics-bench.js';
+import { testBench, closeOnly } from '../../support/physics-bench.js';
 
 
 const resistor = makeBoard('r', [['R', 'x', GROUND, 1000]]);

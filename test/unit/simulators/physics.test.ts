@@ -3,11 +3,11 @@
 // textbook circuit theory (named beside each check) and to the engine on the same board.
 import { describe, expect, it } from 'vitest';
 import { loadBoard } from '../../../src/board/index.js';
-import { GROUND, type Board } from '../../../src/board/types.js';
+import { GROUND } from '../../../src/board/types.js';
 import { ImpedanceSolver } from '../../../src/circuit/impedance.js';
 import { GroundedLaplacian } from '../../../src/circuit/laplacian.js';
-import { defaultFixtureMap, FixtureMap, loadFixtureMap, type FixtureMapData } from '../../../src/instruments/fixture-map.js';
-import { BenchPhysics, NO_PARASITICS, type BenchPhysicsOptions } from '../../../simulators/bench-physics.js';
+import { defaultFixtureMap, loadFixtureMap } from '../../../src/instruments/fixture-map.js';
+import { NO_PARASITICS } from '../../../simulators/bench-physics.js';
 import { buildBoardAsBuilt } from '../../../simulators/board-as-built.js';
 import { parseFaults } from '../../../simulators/faults.js';
 import { makeBoard } from '../../support/make-board.js';

@@ -3,22 +3,11 @@
 
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { SimulatedAnalyzer } from '../../../simulators/analyzer.js';
 import { SimulatedSwitchMatrix } from '../../../simulators/switch-matrix.js';
-import type { SimulatedDevice } from '../../../simulators/device.js';
+import { queuedErrors, testAnalyzer } from '../../support/scpi-devices.js';
 
-const analyzer = (options: Partial<ConstructorParameters<typeof SimulatedAnalyzer>[0]> = {}) =>
-  new SimulatedAnalyzer({ source: { measure: () => ({ re: 50, im: -20 }) }, timeScale: 0, ...options });
-
-async function errors(device: SimulatedDevice): Promise<string[]> {
-  const out: string[] = [];
-  for (let i = 0; i < 100; i++) {
-    const e = (await device.receive('SYST:ERR?')) ?? 'no answer';
-    if (e.startsWith('0,')) return out;
-    out.push(e);
-  }
-  throw new Error('the error queue never emptied');
-}
+const analyzer = testAnalyzer;
+const errors = queuedErrors;
 
 describe('every listed error code, from a real bad input, read back in FIFO order ending in 0,"No error"', () => {
   it('command, execution and query errors on the analyzer (SCPI-99 vol. 2, 21.8 (from memory))', async () => {

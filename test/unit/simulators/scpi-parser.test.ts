@@ -2,24 +2,14 @@
 // through the simulated instruments and through a small tree of our own.
 
 import { describe, expect, it } from 'vitest';
-import { SimulatedAnalyzer } from '../../../simulators/analyzer.js';
 import { SimulatedSwitchMatrix } from '../../../simulators/switch-matrix.js';
 import { lexMessage } from '../../../simulators/scpi/lexer.js';
 import { ScpiDevice } from '../../../simulators/scpi/scpi-device.js';
 import type { SimulatedDevice } from '../../../simulators/device.js';
+import { queuedErrors, testAnalyzer } from '../../support/scpi-devices.js';
 
-const analyzer = () => new SimulatedAnalyzer({ source: { measure: () => ({ re: 50, im: -20 }) }, timeScale: 0 });
-
-/** Every queued error, oldest first, read with SYSTem:ERRor? until the queue says 0. */
-async function errors(device: SimulatedDevice): Promise<string[]> {
-  const out: string[] = [];
-  for (let i = 0; i < 100; i++) {
-    const e = (await device.receive('SYST:ERR?')) ?? 'no answer';
-    if (e.startsWith('0,')) return out;
-    out.push(e);
-  }
-  throw new Error('the error queue never emptied');
-}
+const analyzer = () => testAnalyzer();
+const errors = queuedErrors;
 
 async function codes(device: SimulatedDevice): Promise<number[]> {
   return (await errors(device)).map((e) => Number(e.split(',')[0]));
